@@ -1,0 +1,11 @@
+// See https://svelte.dev/docs/kit/types#app.d.ts
+declare global {
+	namespace App {
+		interface Error {
+			message: string;
+			errorId?: string;
+		}
+	}
+}
+
+export {};
