@@ -1,9 +1,15 @@
 // See https://svelte.dev/docs/kit/types#app.d.ts
+import type { Membership, SessionUser } from '$lib/server/auth/access';
+
 declare global {
 	namespace App {
 		interface Error {
 			message: string;
 			errorId?: string;
+		}
+		interface Locals {
+			user: SessionUser | null;
+			memberships: Membership[];
 		}
 	}
 }

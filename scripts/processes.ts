@@ -1,0 +1,74 @@
+// Child processes of the start and test commands: the web server and the worker.
+import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { existsSync, readdirSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+import { ROOT } from './stack';
+
+export interface Child {
+	name: string;
+	process: ChildProcess;
+	stop(signal?: NodeJS.Signals): Promise<void>;
+}
+
+export function startChild(name: string, command: string, args: string[], env: Record<string, string>, quiet = false): Child {
+	const child = spawn(command, args, {
+		cwd: ROOT,
+		env: { ...process.env, ...env },
+		stdio: quiet ? ['ignore', 'ignore', 'inherit'] : ['ignore', 'inherit', 'inherit']
+	});
+	let exited = child.exitCode !== null;
+	const done = new Promise<void>((r) => child.once('exit', () => ((exited = true), r())));
+	return {
+		name,
+		process: child,
+		async stop(signal: NodeJS.Signals = 'SIGTERM') {
+			if (exited) return;
+			child.kill(signal);
+			const timer = setTimeout(() => child.kill('SIGKILL'), 15_000);
+			await done;
+			clearTimeout(timer);
+		}
+	};
+}
+
+export function startWebServer(env: Record<string, string>, quiet = false): Child {
+	return startChild('web server', process.execPath, ['build/index.js'], { BODY_SIZE_LIMIT: '220M', ...env }, quiet);
+}
+
+export function startWorker(env: Record<string, string>, quiet = false): Child {
+	return startChild('worker', join(ROOT, 'node_modules/.bin/tsx'), ['scripts/worker.ts'], env, quiet);
+}
+
+export async function waitForHttp(url: string, timeoutMs = 60_000): Promise<void> {
+	const until = Date.now() + timeoutMs;
+	for (;;) {
+		try {
+			const r = await fetch(url);
+			if (r.ok) return;
+		} catch {
+			// not up yet
+		}
+		if (Date.now() > until) throw new Error(`Timed out waiting for ${url}`);
+		await new Promise((r) => setTimeout(r, 200));
+	}
+}
+
+function newestMtime(dir: string): number {
+	let newest = 0;
+	for (const entry of readdirSync(dir, { withFileTypes: true })) {
+		const p = join(dir, entry.name);
+		newest = Math.max(newest, entry.isDirectory() ? newestMtime(p) : statSync(p).mtimeMs);
+	}
+	return newest;
+}
+
+/** Build the app unless the build is newer than every source file. */
+export function buildIfStale(force = false): void {
+	const marker = join(ROOT, 'build/index.js');
+	const inputs = ['src', 'static', 'package-lock.json', 'svelte.config.js', 'vite.config.ts', 'tailwind.config.ts'];
+	const sourceTime = Math.max(...inputs.map((i) => (statSync(join(ROOT, i)).isDirectory() ? newestMtime(join(ROOT, i)) : statSync(join(ROOT, i)).mtimeMs)));
+	if (!force && existsSync(marker) && statSync(marker).mtimeMs > sourceTime) return;
+	console.log('» Building the app');
+	const r = spawnSync(join(ROOT, 'node_modules/.bin/vite'), ['build', '--logLevel', 'warn'], { cwd: ROOT, stdio: 'inherit' });
+	if (r.status !== 0) throw new Error('The build failed.');
+}

@@ -1,0 +1,69 @@
+import { error, redirect, type Handle, type HandleServerError, type ServerInit } from '@sveltejs/kit';
+import { sequence } from '@sveltejs/kit/hooks';
+import { authHandle } from '$lib/server/auth/authjs';
+import { loadSessionUser } from '$lib/server/auth/session-user';
+import { closeDb, db } from '$lib/server/db';
+
+// Pages anyone may open; everything else needs a signed-in user (deny by default).
+const PUBLIC_PATHS = [/^\/signin$/, /^\/signout$/, /^\/invitation\/[^/]+$/, /^\/password\/(forgot|reset\/[^/]+)$/, /^\/health$/];
+
+export const init: ServerInit = async () => {
+	// Close the pool on shutdown, or the server takes ~30 s to exit.
+	process.once('sveltekit:shutdown', () => void closeDb());
+};
+
+// Sign-in goes only through our /signin action (which rate-limits); Auth.js's own credential
+// endpoints are closed so nobody can bypass the limit by posting to them directly.
+const closeDirectAuthPosts: Handle = async ({ event, resolve }) => {
+	const p = event.url.pathname;
+	if (event.request.method === 'POST' && (p.startsWith('/auth/callback/') || p.startsWith('/auth/signin'))) {
+		error(404, 'Not found.');
+	}
+	return resolve(event);
+};
+
+const loadUser: Handle = async ({ event, resolve }) => {
+	event.locals.user = null;
+	event.locals.memberships = [];
+	const session = await event.locals.auth();
+	const id = Number(session?.user?.id);
+	if (Number.isInteger(id) && id > 0) {
+		const loaded = await loadSessionUser(db(), id);
+		if (loaded) {
+			event.locals.user = loaded.user;
+			event.locals.memberships = loaded.memberships;
+		}
+	}
+	return resolve(event);
+};
+
+const requireSignIn: Handle = async ({ event, resolve }) => {
+	const p = event.url.pathname;
+	const open = p.startsWith('/auth/') || p.startsWith('/_app/') || PUBLIC_PATHS.some((r) => r.test(p));
+	if (!open && !event.locals.user) {
+		if (p.startsWith('/api/')) {
+			return new Response(JSON.stringify({ message: 'Sign in to continue.' }), {
+				status: 401,
+				headers: { 'content-type': 'application/json' }
+			});
+		}
+		redirect(303, `/signin?redirectTo=${encodeURIComponent(p + event.url.search)}`);
+	}
+	return resolve(event);
+};
+
+const securityHeaders: Handle = async ({ event, resolve }) => {
+	const response = await resolve(event);
+	response.headers.set('x-content-type-options', 'nosniff');
+	response.headers.set('referrer-policy', 'same-origin');
+	response.headers.set('x-frame-options', 'DENY');
+	return response;
+};
+
+export const handle = sequence(closeDirectAuthPosts, authHandle, loadUser, requireSignIn, securityHeaders);
+
+export const handleError: HandleServerError = ({ error: err, event, status, message }) => {
+	const errorId = crypto.randomUUID();
+	if (status >= 500) console.error(`[${errorId}] ${event.request.method} ${event.url.pathname}`, err);
+	return { message: status >= 500 ? 'Something went wrong on our side.' : message, errorId };
+};

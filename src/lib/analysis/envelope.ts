@@ -1,0 +1,103 @@
+// Analytic signal and energy–time curve: the smooth envelope of an impulse response.
+import FFT from 'fft.js';
+
+/** Level given to samples whose energy is zero, instead of −Infinity. */
+export const ENERGY_FLOOR_DB = -200;
+
+export interface AnalyticSignal {
+	re: Float64Array;
+	im: Float64Array;
+}
+
+function nextPowerOfTwo(n: number): number {
+	let size = 4; // fft.js needs a power of two; 4 keeps it on its radix-4 path
+	while (size < n) size *= 2;
+	return size;
+}
+
+/**
+ * Precomputed FFT tables for analytic signals of inputs up to maxLength samples.
+ * The input is zero-padded to the next power of two, so the result equals
+ * scipy.signal.hilbert(x, N=fftSize)[:x.length].
+ */
+export class AnalyticSignalPlan {
+	readonly maxLength: number;
+	readonly fftSize: number;
+	private readonly fft: FFT;
+	private readonly padded: Float64Array;
+	private readonly spectrum: Float64Array;
+	private readonly complexOut: Float64Array;
+
+	constructor(maxLength: number) {
+		if (!Number.isInteger(maxLength) || maxLength < 1) {
+			throw new Error(`analytic signal length must be a positive integer, got ${maxLength}`);
+		}
+		this.maxLength = maxLength;
+		this.fftSize = nextPowerOfTwo(maxLength);
+		this.fft = new FFT(this.fftSize);
+		this.padded = new Float64Array(this.fftSize);
+		this.spectrum = new Float64Array(2 * this.fftSize);
+		this.complexOut = new Float64Array(2 * this.fftSize);
+	}
+
+	/** Fills re/im (length ≥ x.length) with the analytic signal x + j·H{x}. */
+	transform(x: Float64Array, re: Float64Array, im: Float64Array): void {
+		const n = x.length;
+		if (n < 1 || n > this.maxLength) {
+			throw new Error(`input length ${n} outside 1…${this.maxLength} of this plan`);
+		}
+		if (re.length < n || im.length < n) throw new Error('output arrays are shorter than the input');
+		for (let i = 0; i < n; i++) {
+			if (!Number.isFinite(x[i])) throw new Error(`sample ${i} is not a finite number (${x[i]})`);
+		}
+		const size = this.fftSize;
+		const half = size / 2;
+		this.padded.fill(0);
+		this.padded.set(x);
+		this.fft.realTransform(this.spectrum, this.padded); // fills bins 0…N/2
+		// Analytic signal (Marple, IEEE Trans. Signal Process. 47(9):2600, 1999): keep DC and
+		// Nyquist, double the positive frequencies, zero the negative ones.
+		const spectrum = this.spectrum;
+		for (let k = 1; k < half; k++) {
+			spectrum[2 * k] *= 2;
+			spectrum[2 * k + 1] *= 2;
+		}
+		spectrum.fill(0, 2 * (half + 1));
+		this.fft.inverseTransform(this.complexOut, spectrum);
+		for (let i = 0; i < n; i++) {
+			re[i] = this.complexOut[2 * i];
+			im[i] = this.complexOut[2 * i + 1];
+		}
+	}
+}
+
+export function analyticSignal(x: Float64Array): AnalyticSignal {
+	if (x.length === 0) throw new Error('cannot take the analytic signal of an empty signal');
+	const plan = new AnalyticSignalPlan(x.length);
+	const re = new Float64Array(x.length);
+	const im = new Float64Array(x.length);
+	plan.transform(x, re, im);
+	return { re, im };
+}
+
+/** |x + j·H{x}|, same length as x. */
+export function analyticEnvelope(x: Float64Array): Float64Array {
+	const { re, im } = analyticSignal(x);
+	const envelope = new Float64Array(x.length);
+	for (let i = 0; i < x.length; i++) envelope[i] = Math.hypot(re[i], im[i]);
+	return envelope;
+}
+
+/** 10·lg of the squared envelope, 0 dB at its maximum, floored at ENERGY_FLOOR_DB. */
+export function energyTimeCurveDb(x: Float64Array): Float64Array {
+	const envelope = analyticEnvelope(x);
+	let peak = 0;
+	for (let i = 0; i < envelope.length; i++) if (envelope[i] > peak) peak = envelope[i];
+	const curve = new Float64Array(envelope.length).fill(ENERGY_FLOOR_DB);
+	if (peak === 0) return curve; // silence: every sample at the floor
+	for (let i = 0; i < envelope.length; i++) {
+		const ratio = envelope[i] / peak;
+		if (ratio > 0) curve[i] = Math.max(ENERGY_FLOOR_DB, 20 * Math.log10(ratio)); // 10·lg(e²/e²max)
+	}
+	return curve;
+}

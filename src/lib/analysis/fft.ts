@@ -1,0 +1,109 @@
+import FFT from 'fft.js';
+
+export function isPowerOfTwo(n: number): boolean {
+	return Number.isInteger(n) && n > 0 && (n & (n - 1)) === 0;
+}
+
+/** Smallest power of two ≥ n (and ≥ 8, the smallest size the real plan supports). */
+export function fftSizeFor(n: number): number {
+	if (!Number.isFinite(n) || n < 0) throw new RangeError(`fft size needs a non-negative length, got ${n}`);
+	let size = 8;
+	while (size < n) size *= 2;
+	return size;
+}
+
+/**
+ * Real-input FFT of a power-of-two size N, computed with one complex FFT of size N/2 (the samples
+ * taken as interleaved complex pairs) and a twiddle pass — the standard packing, e.g. Oppenheim &
+ * Schafer, Discrete-Time Signal Processing, 3rd ed., §9.3 problems on real-data FFTs.
+ * Spectra are half spectra: bins 0…N/2, interleaved (re, im), length N + 2. The inverse is scaled by 1/N.
+ * The plan owns its tables and one scratch buffer: reuse it, but not from two callers at once.
+ */
+export class RealFftPlan {
+	readonly size: number;
+	private readonly half: FFT;
+	/** cos, sin of 2πk/N for k < N/2. */
+	private readonly twiddle: Float64Array;
+	private readonly packed: Float64Array;
+	private readonly transformed: Float64Array;
+
+	constructor(size: number) {
+		if (!isPowerOfTwo(size) || size < 8) throw new RangeError(`real FFT size must be a power of two ≥ 8, got ${size}`);
+		this.size = size;
+		this.half = new FFT(size / 2);
+		this.twiddle = new Float64Array(size);
+		for (let k = 0; k < size / 2; k++) {
+			const angle = (2 * Math.PI * k) / size;
+			this.twiddle[2 * k] = Math.cos(angle);
+			this.twiddle[2 * k + 1] = Math.sin(angle);
+		}
+		this.packed = new Float64Array(size);
+		this.transformed = new Float64Array(size);
+	}
+
+	/** Writes the half spectrum of `input` (zero-padded to N; longer input is an error) into `spectrum`. */
+	forward(input: Float64Array, spectrum: Float64Array): void {
+		const n = this.size;
+		if (input.length > n) throw new RangeError(`input of ${input.length} samples does not fit a ${n}-point FFT`);
+		if (spectrum.length < n + 2) throw new RangeError(`spectrum buffer needs ${n + 2} values, got ${spectrum.length}`);
+		let source = input;
+		if (input.length < n) {
+			this.packed.set(input);
+			this.packed.fill(0, input.length);
+			source = this.packed;
+		}
+		// Even samples as real parts, odd samples as imaginary parts: the input already is that array.
+		const z = this.transformed;
+		this.half.transform(z, source);
+		const m = n / 2;
+		const tw = this.twiddle;
+		for (let k = 0; k <= m; k++) {
+			const a = k === m ? 0 : k;
+			const b = k === 0 || k === m ? 0 : m - k;
+			const zr = z[2 * a];
+			const zi = z[2 * a + 1];
+			const cr = z[2 * b];
+			const ci = -z[2 * b + 1];
+			// E = (Z[k] + conj Z[m−k]) / 2,  O = (Z[k] − conj Z[m−k]) / 2j
+			const er = (zr + cr) / 2;
+			const ei = (zi + ci) / 2;
+			const or = (zi - ci) / 2;
+			const oi = -(zr - cr) / 2;
+			// X[k] = E + W^k·O with W^k = cos − j·sin
+			const c = k === m ? -1 : tw[2 * k];
+			const s = k === m ? 0 : tw[2 * k + 1];
+			spectrum[2 * k] = er + (c * or + s * oi);
+			spectrum[2 * k + 1] = ei + (c * oi - s * or);
+		}
+	}
+
+	/** Writes the real signal of a half spectrum into `output` (length ≥ N). */
+	inverse(spectrum: Float64Array, output: Float64Array): void {
+		const n = this.size;
+		if (spectrum.length < n + 2) throw new RangeError(`spectrum needs ${n + 2} values, got ${spectrum.length}`);
+		if (output.length < n) throw new RangeError(`output buffer needs ${n} samples, got ${output.length}`);
+		const m = n / 2;
+		const tw = this.twiddle;
+		const z = this.packed;
+		for (let k = 0; k < m; k++) {
+			const xr = spectrum[2 * k];
+			const xi = spectrum[2 * k + 1];
+			const yr = spectrum[2 * (m - k)];
+			const yi = -spectrum[2 * (m - k) + 1];
+			// E = (X[k] + conj X[m−k]) / 2,  O = (X[k] − conj X[m−k])·W^−k / 2, Z = E + j·O
+			const er = (xr + yr) / 2;
+			const ei = (xi + yi) / 2;
+			const dr = (xr - yr) / 2;
+			const di = (xi - yi) / 2;
+			const c = tw[2 * k];
+			const s = tw[2 * k + 1];
+			const or = dr * c - di * s;
+			const oi = dr * s + di * c;
+			z[2 * k] = er - oi;
+			z[2 * k + 1] = ei + or;
+		}
+		const result = n === output.length ? output : this.transformed;
+		this.half.inverseTransform(result, z);
+		if (result !== output) output.set(result);
+	}
+}

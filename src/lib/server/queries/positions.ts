@@ -1,0 +1,92 @@
+import type { Knex } from 'knex';
+
+export interface Point {
+	x: number;
+	y: number;
+	z: number;
+}
+
+export interface PositionRow {
+	id: number;
+	sessionId: number;
+	label: string;
+	sourceLabel: string | null;
+	micLabel: string | null;
+	source: Point | null;
+	mic: Point | null;
+}
+
+function point(r: Record<string, unknown>, prefix: 'source' | 'mic'): Point | null {
+	const x = r[`${prefix}_x_m`], y = r[`${prefix}_y_m`], z = r[`${prefix}_z_m`];
+	return x == null || y == null || z == null ? null : { x: Number(x), y: Number(y), z: Number(z) };
+}
+
+function shape(r: Record<string, unknown>): PositionRow {
+	return {
+		id: r.id as number,
+		sessionId: r.session_id as number,
+		label: r.label as string,
+		sourceLabel: (r.source_label as string) ?? null,
+		micLabel: (r.mic_label as string) ?? null,
+		source: point(r, 'source'),
+		mic: point(r, 'mic')
+	};
+}
+
+export async function listPositions(k: Knex, sessionId: number): Promise<PositionRow[]> {
+	const rows = await k('positions').where({ session_id: sessionId }).orderBy('label');
+	return rows.map(shape);
+}
+
+export async function getPosition(k: Knex, id: number): Promise<PositionRow | undefined> {
+	const r = await k('positions').where({ id }).first();
+	return r ? shape(r) : undefined;
+}
+
+export interface PositionInput {
+	label: string;
+	sourceLabel: string | null;
+	micLabel: string | null;
+	sourceX: number | null;
+	sourceY: number | null;
+	sourceZ: number | null;
+	micX: number | null;
+	micY: number | null;
+	micZ: number | null;
+}
+
+export async function createPosition(k: Knex, sessionId: number, p: PositionInput): Promise<number> {
+	const [id] = await k('positions').insert({
+		session_id: sessionId,
+		label: p.label,
+		source_label: p.sourceLabel,
+		mic_label: p.micLabel,
+		source_x_m: p.sourceX,
+		source_y_m: p.sourceY,
+		source_z_m: p.sourceZ,
+		mic_x_m: p.micX,
+		mic_y_m: p.micY,
+		mic_z_m: p.micZ
+	});
+	return id;
+}
+
+/** Coordinates are optional, but a given point must be complete and inside the room. */
+export function checkPositionInRoom(
+	p: PositionInput,
+	room: { lengthM: number; widthM: number; heightM: number }
+): Record<string, string> {
+	const errors: Record<string, string> = {};
+	for (const who of ['source', 'mic'] as const) {
+		const xs = [p[`${who}X`], p[`${who}Y`], p[`${who}Z`]];
+		const given = xs.filter((v) => v !== null).length;
+		if (given > 0 && given < 3) errors[`${who}X`] = 'Give all three coordinates or none.';
+		const limits = [room.lengthM, room.widthM, room.heightM];
+		const axes = ['X', 'Y', 'Z'] as const;
+		xs.forEach((v, i) => {
+			if (v !== null && (v < 0 || v > limits[i]))
+				errors[`${who}${axes[i]}`] = `Must lie inside the room (0 – ${limits[i]} m).`;
+		});
+	}
+	return errors;
+}

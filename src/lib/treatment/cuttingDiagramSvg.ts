@@ -1,0 +1,60 @@
+// Drawing of one cut sheet: parts labelled, saw cuts as thin lines, offcuts hatched.
+import type { SheetLayout } from './cutlist';
+import { DRAWING_FONT, escapeXml, line, PALETTE, px, rect, text } from './svg';
+import { formatLength, type LengthUnit } from './units';
+
+export interface CuttingDiagramOptions {
+	unit?: LengthUnit;
+	/** Drawing width of the sheet in pixels; the height follows the sheet's proportions. */
+	widthPx?: number;
+	title?: string;
+}
+
+export function cuttingDiagramSvg(layout: SheetLayout, options: CuttingDiagramOptions = {}): string {
+	const unit = options.unit ?? 'mm';
+	const drawWidth = options.widthPx ?? 900;
+	if (!(drawWidth > 0)) throw new Error(`drawing width must be positive, got ${drawWidth}`);
+	const { stock, kerfMm: kerf } = layout;
+	const s = drawWidth / stock.lengthMm;
+	const margin = { left: 16, right: 16, top: 40, bottom: 16 };
+	const width = margin.left + drawWidth + margin.right;
+	const height = margin.top + stock.widthMm * s + margin.bottom;
+	const X = (mm: number) => margin.left + mm * s;
+	const Y = (mm: number) => margin.top + mm * s;
+	const title =
+		options.title ??
+		`${stock.id} #${layout.sheetNumber}: ${formatLength(stock.lengthMm, unit)} × ${formatLength(stock.widthMm, unit)} × ${formatLength(stock.thicknessMm, unit)}`;
+	const out: string[] = [
+		`<svg xmlns="http://www.w3.org/2000/svg" width="${px(width)}" height="${px(height)}" viewBox="0 0 ${px(width)} ${px(height)}" role="img" aria-label="${escapeXml(title)}">`,
+		'<defs><pattern id="offcut-hatch" width="8" height="8" patternUnits="userSpaceOnUse" patternTransform="rotate(45)">' +
+			`<line x1="0" y1="0" x2="0" y2="8" stroke="${PALETTE.muted}" stroke-width="1"/></pattern></defs>`,
+		rect(0, 0, width, height, `fill="${PALETTE.paper}"`),
+		text(margin.left, 24, title, `${DRAWING_FONT} font-size="12" fill="${PALETTE.ink}"`),
+		rect(X(0), Y(0), stock.lengthMm * s, stock.widthMm * s, `fill="${PALETTE.fill}" stroke="${PALETTE.ink}" stroke-width="1"`)
+	];
+	for (const o of layout.offcuts) {
+		out.push(rect(X(o.x), Y(o.y), o.lengthMm * s, o.widthMm * s, `fill="url(#offcut-hatch)" stroke="${PALETTE.muted}" stroke-width="0.5" stroke-dasharray="3 2"`));
+	}
+	for (const p of layout.placements) {
+		out.push(rect(X(p.x), Y(p.y), p.lengthMm * s, p.widthMm * s, `fill="${PALETTE.wood}" stroke="${PALETTE.woodEdge}" stroke-width="0.75"`));
+		const size = `${formatLength(p.rotated ? p.widthMm : p.lengthMm, unit)} × ${formatLength(p.rotated ? p.lengthMm : p.widthMm, unit)}`;
+		const label = p.lengthMm * s > 90 && p.widthMm * s > 24 ? `${p.name} ${size}` : p.lengthMm * s > 40 && p.widthMm * s > 10 ? p.name : '';
+		if (label) {
+			out.push(
+				text(X(p.x + p.lengthMm / 2), Y(p.y + p.widthMm / 2) + 4, label, `${DRAWING_FONT} font-size="10" fill="${PALETTE.ink}" text-anchor="middle"`)
+			);
+		}
+	}
+	// Saw cuts: rip cuts below each strip across the sheet, crosscuts after each part within its strip.
+	const cut = `stroke="#b91c1c" stroke-width="${px(Math.max(kerf * s, 0.75))}" stroke-opacity="0.7"`;
+	for (const strip of layout.strips) {
+		const yCut = strip.y + strip.widthMm + kerf / 2;
+		if (yCut < stock.widthMm) out.push(line(X(0), Y(yCut), X(stock.lengthMm), Y(yCut), cut));
+		for (const p of layout.placements.filter((q) => q.y === strip.y)) {
+			const xCut = p.x + p.lengthMm + kerf / 2;
+			if (xCut < stock.lengthMm) out.push(line(X(xCut), Y(strip.y), X(xCut), Y(strip.y + strip.widthMm), cut));
+		}
+	}
+	out.push('</svg>');
+	return out.join('\n');
+}
