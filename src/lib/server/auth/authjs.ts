@@ -15,6 +15,12 @@ export function authConfig(): SvelteKitAuthConfig {
 		basePath: '/auth',
 		session: { strategy: 'jwt', maxAge: SESSION_HOURS * 3600 },
 		pages: { signIn: '/signin', error: '/signin' },
+		logger: {
+			// A wrong password is an expected outcome, not a server error worth a stack trace.
+			error(e) {
+				if ((e as { type?: string }).type !== 'CredentialsSignin') console.error('[auth]', e);
+			}
+		},
 		providers: [
 			Credentials({
 				credentials: { email: {}, password: {} },

@@ -1,0 +1,232 @@
+import { analysisBands, type Band, type BandKind } from './bands';
+
+/**
+ * Second-order sections, n × [b0, b1, b2, a0 = 1, a1, a2] (the layout scipy.signal uses), the
+ * overall gain folded into the first section.
+ */
+export type SecondOrderSections = Float64Array;
+
+interface Complex {
+	re: number;
+	im: number;
+}
+
+const add = (a: Complex, b: Complex): Complex => ({ re: a.re + b.re, im: a.im + b.im });
+const sub = (a: Complex, b: Complex): Complex => ({ re: a.re - b.re, im: a.im - b.im });
+const mul = (a: Complex, b: Complex): Complex => ({ re: a.re * b.re - a.im * b.im, im: a.re * b.im + a.im * b.re });
+const scale = (a: Complex, s: number): Complex => ({ re: a.re * s, im: a.im * s });
+function div(a: Complex, b: Complex): Complex {
+	const d = b.re * b.re + b.im * b.im;
+	return { re: (a.re * b.re + a.im * b.im) / d, im: (a.im * b.re - a.re * b.im) / d };
+}
+/** Principal square root. */
+function sqrt(a: Complex): Complex {
+	const r = Math.hypot(a.re, a.im);
+	const re = Math.sqrt((r + a.re) / 2);
+	const im = Math.sqrt(Math.max(0, (r - a.re) / 2));
+	return { re, im: a.im < 0 ? -im : im };
+}
+const abs = (a: Complex): number => Math.hypot(a.re, a.im);
+
+/**
+ * Digital Butterworth band-pass of the given order on [lowHz, highHz] as second-order sections:
+ * analog prototype poles −e^(jπm/2N) (Butterworth), low-pass → band-pass substitution
+ * s → (s² + ω₀²)/(B·s), bilinear transform with the edges pre-warped, ω = 2·fs·tan(πf/fs)
+ * (Oppenheim & Schafer, Discrete-Time Signal Processing, §7.1), then poles paired with their
+ * nearest zeros, the poles nearest the unit circle last — the construction of
+ * scipy.signal.butter(order, [low, high], btype='band', fs=fs, output='sos').
+ */
+export function designButterworthBandpass(order: number, lowHz: number, highHz: number, sampleRate: number): SecondOrderSections {
+	if (!Number.isInteger(order) || order < 1 || order > 10) throw new RangeError(`filter order must be an integer 1…10, got ${order}`);
+	if (!(lowHz > 0 && highHz > lowHz && highHz < sampleRate / 2)) {
+		throw new RangeError(`band edges must satisfy 0 < low < high < fs/2: got ${lowHz}, ${highHz} Hz at ${sampleRate} Hz`);
+	}
+	// Work at a normalised sampling rate of 2 (the bilinear constant 2·fs = 4), as scipy does.
+	const bilinear = 4;
+	const warpedLow = bilinear * Math.tan((Math.PI * lowHz) / sampleRate);
+	const warpedHigh = bilinear * Math.tan((Math.PI * highHz) / sampleRate);
+	const bandwidth = warpedHigh - warpedLow;
+	const centreSquared = warpedLow * warpedHigh;
+
+	const analogPoles: Complex[] = [];
+	for (let m = -order + 1; m < order; m += 2) {
+		const angle = (Math.PI * m) / (2 * order);
+		const p = scale({ re: -Math.cos(angle), im: -Math.sin(angle) }, bandwidth / 2);
+		const root = sqrt(sub(mul(p, p), { re: centreSquared, im: 0 }));
+		analogPoles.push(add(p, root), sub(p, root));
+	}
+	const b = { re: bilinear, im: 0 };
+	const poles = analogPoles.map((p) => div(add(b, p), sub(b, p)));
+	// Gain: B^N from the substitution, times prod(2fs − z)/prod(2fs − p) from the bilinear transform (zeros at s = 0).
+	let gain: Complex = { re: bandwidth ** order * bilinear ** order, im: 0 };
+	for (const p of analogPoles) gain = div(gain, sub(b, p));
+
+	// N zeros at z = +1 (from s = 0) and N at z = −1 (from s = ∞).
+	const zeros: number[] = [...Array(order).fill(-1), ...Array(order).fill(1)];
+	const upperPoles = poles.filter((p) => p.im > 0);
+	const sections = new Float64Array(order * 6);
+	for (let section = order - 1; section >= 0; section--) {
+		let worst = 0;
+		for (let i = 1; i < upperPoles.length; i++) {
+			if (Math.abs(1 - abs(upperPoles[i])) < Math.abs(1 - abs(upperPoles[worst]))) worst = i;
+		}
+		const [pole] = upperPoles.splice(worst, 1);
+		const takeNearestZero = (): number => {
+			let best = 0;
+			for (let i = 1; i < zeros.length; i++) {
+				if (abs(sub({ re: zeros[i], im: 0 }, pole)) < abs(sub({ re: zeros[best], im: 0 }, pole))) best = i;
+			}
+			return zeros.splice(best, 1)[0];
+		};
+		const z1 = takeNearestZero();
+		const z2 = takeNearestZero();
+		const row = section * 6;
+		sections[row] = 1;
+		sections[row + 1] = -(z1 + z2);
+		sections[row + 2] = z1 * z2;
+		sections[row + 3] = 1;
+		sections[row + 4] = -2 * pole.re;
+		sections[row + 5] = pole.re * pole.re + pole.im * pole.im;
+	}
+	for (let i = 0; i < 3; i++) sections[i] *= gain.re;
+	return sections;
+}
+
+/**
+ * Edges for each pass of a forward-backward filter so that the combined response, |H|², is 3.01 dB
+ * down at the exact band edges: the same pre-warped centre, the bandwidth widened by
+ * 1/(√2 − 1)^(1/2N) (a Butterworth pass is 1/(1 + x^2N) in power, and (1 + x^2N)² = 2 there).
+ */
+export function zeroPhasePassEdges(lowHz: number, highHz: number, sampleRate: number, order: number): { lowHz: number; highHz: number } {
+	const warp = (f: number) => Math.tan((Math.PI * f) / sampleRate);
+	const unwarp = (w: number) => (sampleRate / Math.PI) * Math.atan(w);
+	const wLow = warp(lowHz);
+	const wHigh = warp(highHz);
+	const centreSquared = wLow * wHigh;
+	const widened = (wHigh - wLow) / (Math.SQRT2 - 1) ** (1 / (2 * order));
+	const newHigh = (widened + Math.sqrt(widened * widened + 4 * centreSquared)) / 2;
+	return { lowHz: unwarp(centreSquared / newHigh), highHz: unwarp(newHigh) };
+}
+
+/** |H(e^jω)|² of the sections at one frequency. */
+export function sectionsPowerGain(sos: SecondOrderSections, frequencyHz: number, sampleRate: number): number {
+	const w = (2 * Math.PI * frequencyHz) / sampleRate;
+	const c1 = Math.cos(w);
+	const s1 = Math.sin(w);
+	const c2 = Math.cos(2 * w);
+	const s2 = Math.sin(2 * w);
+	let gain = 1;
+	for (let row = 0; row < sos.length; row += 6) {
+		const nr = sos[row] + sos[row + 1] * c1 + sos[row + 2] * c2;
+		const ni = -(sos[row + 1] * s1 + sos[row + 2] * s2);
+		const dr = sos[row + 3] + sos[row + 4] * c1 + sos[row + 5] * c2;
+		const di = -(sos[row + 4] * s1 + sos[row + 5] * s2);
+		gain *= (nr * nr + ni * ni) / (dr * dr + di * di);
+	}
+	return gain;
+}
+
+/** Filters in place, forward in time, transposed direct form II per section, zero initial state. */
+export function filterForwardInPlace(sos: SecondOrderSections, data: Float64Array, start = 0, end = data.length): void {
+	for (let row = 0; row < sos.length; row += 6) {
+		const b0 = sos[row];
+		const b1 = sos[row + 1];
+		const b2 = sos[row + 2];
+		const a1 = sos[row + 4];
+		const a2 = sos[row + 5];
+		let z1 = 0;
+		let z2 = 0;
+		for (let i = start; i < end; i++) {
+			const x = data[i];
+			const y = b0 * x + z1;
+			z1 = b1 * x - a1 * y + z2;
+			z2 = b2 * x - a2 * y;
+			data[i] = y;
+		}
+	}
+}
+
+/** The same, running from the end to the start (time-reversed filtering). */
+export function filterBackwardInPlace(sos: SecondOrderSections, data: Float64Array, start = 0, end = data.length): void {
+	for (let row = 0; row < sos.length; row += 6) {
+		const b0 = sos[row];
+		const b1 = sos[row + 1];
+		const b2 = sos[row + 2];
+		const a1 = sos[row + 4];
+		const a2 = sos[row + 5];
+		let z1 = 0;
+		let z2 = 0;
+		for (let i = end - 1; i >= start; i--) {
+			const x = data[i];
+			const y = b0 * x + z1;
+			z1 = b1 * x - a1 * y + z2;
+			z2 = b2 * x - a2 * y;
+			data[i] = y;
+		}
+	}
+}
+
+/** Butterworth order of each pass: 3 (6th-order band-pass) for octaves and thirds. */
+export const BAND_FILTER_ORDER = 3;
+
+export interface BandFilter {
+	band: Band;
+	/** Coefficients of one pass (applied forward, then backward). */
+	sections: SecondOrderSections;
+	/** Exact bandwidth f₂ − f₁, the B of the B·T bias criterion. */
+	bandwidthHz: number;
+	/** Samples of mirrored signal added at each end so the passes start from a settled state. */
+	padding: number;
+}
+
+export interface BandFilterBank {
+	sampleRate: number;
+	kind: BandKind;
+	filters: BandFilter[];
+	/**
+	 * Zero-phase band signal of input[start…end): forward then backward through the band's sections,
+	 * each end extended by an even mirror image so the filter's start-up transient falls outside.
+	 */
+	filterZeroPhase(bandIndex: number, input: Float64Array, start?: number, end?: number): Float64Array;
+}
+
+/**
+ * Precomputes the band filters. Zero-phase (forward-backward) filtering keeps the direct sound in
+ * place, so C50/C80 windows and the start point apply unchanged in every band; it squares the
+ * magnitude, so each pass is designed on widened edges and the combined response meets the class 1
+ * mask with −3.01 dB at the exact edges.
+ */
+export function createBandFilterBank(sampleRate: number, kind: BandKind): BandFilterBank {
+	if (!(sampleRate > 0)) throw new RangeError(`sample rate must be positive, got ${sampleRate}`);
+	const filters = analysisBands(kind).map((band): BandFilter => {
+		const edges = zeroPhasePassEdges(band.lowerHz, band.upperHz, sampleRate, BAND_FILTER_ORDER);
+		if (edges.highHz >= sampleRate / 2) throw new RangeError(`the ${band.nominalHz} Hz band does not fit below half of ${sampleRate} Hz`);
+		const bandwidthHz = band.upperHz - band.lowerHz;
+		return {
+			band,
+			sections: designButterworthBandpass(BAND_FILTER_ORDER, edges.lowHz, edges.highHz, sampleRate),
+			bandwidthHz,
+			// The pass's impulse response has decayed by > 60 dB after about 4/B.
+			padding: Math.ceil((4 * sampleRate) / bandwidthHz)
+		};
+	});
+
+	function filterZeroPhase(bandIndex: number, input: Float64Array, start = 0, end = input.length): Float64Array {
+		const filter = filters[bandIndex];
+		if (!filter) throw new RangeError(`no band ${bandIndex}: the bank has ${filters.length} bands`);
+		if (!(start >= 0 && end <= input.length && end > start)) throw new RangeError(`bad range ${start}…${end} of ${input.length} samples`);
+		const length = end - start;
+		const pad = Math.min(filter.padding, length - 1);
+		const work = new Float64Array(length + 2 * pad);
+		work.set(input.subarray(start, end), pad);
+		for (let i = 1; i <= pad; i++) {
+			work[pad - i] = input[start + i];
+			work[pad + length - 1 + i] = input[end - 1 - i];
+		}
+		filterForwardInPlace(filter.sections, work);
+		filterBackwardInPlace(filter.sections, work);
+		return work.subarray(pad, pad + length);
+	}
+
+	return { sampleRate, kind, filters, filterZeroPhase };
+}

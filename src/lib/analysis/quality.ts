@@ -1,0 +1,45 @@
+import type { DecayMetric } from './decay-fit';
+
+/**
+ * Peak-to-noise ratio a metric needs: the bottom of its evaluation range at least 10 dB above the
+ * noise (ISO 3382-1:2009 and ISO 3382-2:2008, from memory) — 35 dB for T20 (−25 dB) and 45 dB for T30 (−35 dB);
+ * EDT's −10 dB by the same rule needs 20 dB (common practice, no source).
+ */
+export const REQUIRED_PEAK_TO_NOISE_DB: Record<DecayMetric, number> = { edt: 20, t20: 35, t30: 45 };
+
+export const METRIC_LABELS: Record<DecayMetric, string> = { edt: 'EDT', t20: 'T20', t30: 'T30' };
+
+/**
+ * Smallest bandwidth × reverberation time for which the band filter does not lengthen the decay
+ * (Jacobsen & Rindel, J. Sound Vib. 117, 1987, from memory): B·T > 16 filtering forward, > 4 time-reversed.
+ * Forward-backward filtering keeps the forward pass's ringing after every event, so we hold it to
+ * the forward criterion.
+ */
+export const FILTER_BIAS_MIN_BT = { forward: 16, timeReversed: 4, zeroPhase: 16 } as const;
+
+/** Curvature above 10 % marks a decay as suspect, e.g. double-sloped (ISO 3382-2:2008, Annex B). */
+export const CURVATURE_LIMIT_PERCENT = 10;
+
+/** A band value is considered filter-biased when B·T falls short of the criterion. */
+export function isFilterBiased(bandwidthHz: number, reverberationTimeS: number, criterion: number = FILTER_BIAS_MIN_BT.zeroPhase): boolean {
+	return bandwidthHz * reverberationTimeS <= criterion;
+}
+
+export function peakToNoiseProblem(metric: DecayMetric, peakToNoiseDb: number): string | null {
+	const needed = REQUIRED_PEAK_TO_NOISE_DB[metric];
+	if (peakToNoiseDb >= needed) return null;
+	return `peak-to-noise ${Math.round(peakToNoiseDb)} dB — ${METRIC_LABELS[metric]} needs ${needed} dB: measure louder or longer`;
+}
+
+export function rangeNotReachedProblem(metric: DecayMetric, bottomDb: number): string {
+	return `the decay does not reach ${bottomDb} dB before the noise — ${METRIC_LABELS[metric]} cannot be evaluated: measure louder or longer`;
+}
+
+export function filterBiasProblem(bandwidthHz: number, reverberationTimeS: number, criterion: number): string {
+	const product = bandwidthHz * reverberationTimeS;
+	return `B·T = ${product.toFixed(1)} is below ${criterion}: the band filter's own ringing may lengthen this decay (values kept, marked biased)`;
+}
+
+export function curvatureProblem(curvaturePct: number): string {
+	return `curvature ${curvaturePct.toFixed(0)} % (T30 vs T20) is above ${CURVATURE_LIMIT_PERCENT} %: the decay is not a single slope`;
+}

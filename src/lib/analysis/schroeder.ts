@@ -1,0 +1,29 @@
+/**
+ * Schroeder backward integration (Schroeder, "New method of measuring reverberation time",
+ * JASA 37(3):409–412, 1965): E(t) = ∫ₜ^∞ p²(τ) dτ, here summed from the truncation point back,
+ * plus the energy of the missing tail beyond it (Lundeby et al., Acustica 81:344, 1995).
+ */
+
+/** Missing tail of an exponential decay of power P₁ at t₁: ∫ P₁·e^(−k(t−t₁)) dt = P₁/k, in samples (× fs). */
+export function exponentialTailEnergy(powerAtTruncation: number, decayDbPerS: number, sampleRate: number): number {
+	if (!(decayDbPerS < 0)) throw new RangeError(`a decay slope must be negative, got ${decayDbPerS} dB/s`);
+	// k = |slope|·ln10/10 turns a dB/s slope into the energy decay rate (equivalently T_late/(6·ln10) = 1/k).
+	const k = (-decayDbPerS * Math.LN10) / 10;
+	return (powerAtTruncation * sampleRate) / k;
+}
+
+/** Backward-integrated decay in dB re its value at index 0, over [0, end); `tailEnergy` is added to every value. */
+export function schroederDecayDb(squared: Float64Array, end: number, tailEnergy = 0): Float64Array {
+	if (!(end >= 1 && end <= squared.length)) throw new RangeError(`truncation index ${end} outside 1…${squared.length}`);
+	if (!(tailEnergy >= 0)) throw new RangeError(`tail energy must be ≥ 0, got ${tailEnergy}`);
+	const curve = new Float64Array(end);
+	let sum = tailEnergy;
+	for (let i = end - 1; i >= 0; i--) {
+		sum += squared[i];
+		curve[i] = sum;
+	}
+	const total = curve[0];
+	if (!(total > 0)) throw new RangeError('the decay holds no energy');
+	for (let i = 0; i < end; i++) curve[i] = 10 * Math.log10(curve[i] / total);
+	return curve;
+}
