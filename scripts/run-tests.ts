@@ -1,7 +1,7 @@
 // `npm test`: throw-away services on their own ports and data dir, every test layer, then one
 // closing line "N passed, M failed" counted over all layers. Stops what it started, even on failure.
 import { existsSync, readFileSync, rmSync } from 'node:fs';
-import { spawnSync } from 'node:child_process';
+import { spawn } from 'node:child_process';
 import { join } from 'node:path';
 import knex from 'knex';
 import { dataDir, migrate, profileEnv, ROOT, startServices, stopServices } from './stack';
@@ -29,14 +29,17 @@ let services: Awaited<ReturnType<typeof startServices>> = [];
 const children: Child[] = [];
 const totals = { passed: 0, failed: 0, skipped: 0 };
 
-function runLayer(label: string, projects: string[]): void {
+// Asynchronous on purpose: the S3 fake and the mail sink live in this process and must keep
+// answering while the tests run.
+async function runLayer(label: string, projects: string[]): Promise<void> {
 	const out = join(dir, `results-${label}.json`);
 	console.log(`\n» ${label} tests`);
-	spawnSync(
+	const child = spawn(
 		join(ROOT, 'node_modules/.bin/vitest'),
 		['run', ...projects.flatMap((p) => ['--project', p]), '--passWithNoTests', '--reporter=default', '--reporter=json', `--outputFile=${out}`, ...only],
 		{ cwd: ROOT, env: { ...process.env, ...testEnv }, stdio: 'inherit' }
 	);
+	await new Promise((r) => child.once('exit', r));
 	if (!existsSync(out)) {
 		console.error(`${label}: the runner produced no results`);
 		totals.failed += 1;
@@ -68,10 +71,10 @@ try {
 	children.push(web);
 	await waitForHttp(`${env.PUBLIC_BASE_URL}/health`);
 
-	runLayer('unit+integration', ['unit', 'integration']);
+	await runLayer('unit+integration', ['unit', 'integration']);
 	// Browser tests need mail delivered and captures analysed: a worker runs for them.
 	children.push(startWorker(env, true));
-	runLayer('e2e', ['e2e']);
+	await runLayer('e2e', ['e2e']);
 	exitCode = totals.failed === 0 && totals.passed > 0 ? 0 : 1;
 } catch (e) {
 	console.error(e instanceof Error ? e.stack : e);

@@ -1,4 +1,5 @@
 // Spatial averaging over positions and the comparison of two conditions (before/after).
+import { AnalysisInputError } from './errors';
 import { sameBand } from './targets';
 
 export interface BandValue {
@@ -6,8 +7,16 @@ export interface BandValue {
 	valueS: number | null;
 }
 
-/** One band of one position: its centre and any number of metrics (null = not measurable). */
-export type BandMetrics = { centerHz: number; [metric: string]: number | null };
+/**
+ * One band of one position. Any object with a centre will do (the engine's per-band results
+ * included); metrics are read by name and only finite numbers count, null meaning not measurable.
+ */
+export interface BandRow {
+	centerHz: number;
+}
+
+/** A band row written out by hand: its centre and any number of metrics. */
+export type MetricRow = { centerHz: number; [metric: string]: number | null };
 
 export interface MetricAverage {
 	mean: number | null;
@@ -48,8 +57,12 @@ export interface OutlierFlag {
 	deviation: number;
 }
 
-function finiteOrNull(value: number | null | undefined): number | null {
+function finiteOrNull(value: unknown): number | null {
 	return typeof value === 'number' && Number.isFinite(value) ? value : null;
+}
+
+function metricOf(row: BandRow | undefined, metric: string): number | null {
+	return row === undefined ? null : finiteOrNull((row as unknown as Record<string, unknown>)[metric]);
 }
 
 /** Band centres present in any position, matched across nominal/exact spellings, ascending. */
@@ -57,7 +70,7 @@ function unionOfCenters(positions: { centerHz: number }[][]): number[] {
 	const centers: number[] = [];
 	for (const bands of positions) {
 		for (const { centerHz } of bands) {
-			if (!Number.isFinite(centerHz) || centerHz <= 0) throw new Error(`band centre must be > 0 Hz, got ${centerHz}`);
+			if (!Number.isFinite(centerHz) || centerHz <= 0) throw new AnalysisInputError('invalid_option', `band centre must be > 0 Hz, got ${centerHz}`);
 			if (!centers.some((c) => sameBand(c, centerHz))) centers.push(centerHz);
 		}
 	}
@@ -79,16 +92,15 @@ function meanAndStd(values: number[]): MetricAverage {
  * times (ISO 3382-2:2008, spatial averaging; clause from memory). Level metrics in dB (C50,
  * C80) are averaged arithmetically in dB too — a stated choice, as for the times.
  */
-export function averageBands(positions: BandMetrics[][], metrics: string[]): AveragedBand[] {
+export function averageBands<Row extends BandRow>(
+	positions: Row[][],
+	metrics: readonly (keyof Row & string)[]
+): AveragedBand[] {
 	return unionOfCenters(positions).map((centerHz) => {
-		const rows = positions
-			.map((bands) => bands.find((band) => sameBand(band.centerHz, centerHz)))
-			.filter((row): row is BandMetrics => row !== undefined);
+		const rows = positions.map((bands) => bands.find((band) => sameBand(band.centerHz, centerHz)));
 		const values: Record<string, MetricAverage> = {};
 		for (const metric of metrics) {
-			values[metric] = meanAndStd(
-				rows.map((row) => finiteOrNull(row[metric])).filter((v): v is number => v !== null)
-			);
+			values[metric] = meanAndStd(rows.map((row) => metricOf(row, metric)).filter((v): v is number => v !== null));
 		}
 		return { centerHz, values };
 	});
@@ -96,22 +108,22 @@ export function averageBands(positions: BandMetrics[][], metrics: string[]): Ave
 
 /** Power average 10·lg(mean 10^(L/10)) of curves that share one frequency grid. */
 export function powerAverageCurves(curves: { freqHz: number[]; db: number[] }[]): { freqHz: number[]; db: number[] } {
-	if (curves.length === 0) throw new Error('no curves to average');
+	if (curves.length === 0) throw new AnalysisInputError('invalid_option', 'no curves to average');
 	const grid = curves[0].freqHz;
 	curves.forEach((curve, i) => {
 		if (curve.db.length !== curve.freqHz.length) {
-			throw new Error(`curve ${i} has ${curve.freqHz.length} frequencies but ${curve.db.length} levels`);
+			throw new AnalysisInputError('invalid_option', `curve ${i} has ${curve.freqHz.length} frequencies but ${curve.db.length} levels`);
 		}
 		if (curve.freqHz.length !== grid.length) {
-			throw new Error(`curve ${i} has ${curve.freqHz.length} points, curve 0 has ${grid.length}; grids differ`);
+			throw new AnalysisInputError('invalid_option', `curve ${i} has ${curve.freqHz.length} points, curve 0 has ${grid.length}; grids differ`);
 		}
 		curve.freqHz.forEach((f, k) => {
 			if (Math.abs(f - grid[k]) > 1e-9 * Math.max(1, Math.abs(grid[k]))) {
-				throw new Error(`curve ${i} differs from curve 0 at point ${k} (${f} vs ${grid[k]} Hz); grids differ`);
+				throw new AnalysisInputError('invalid_option', `curve ${i} differs from curve 0 at point ${k} (${f} vs ${grid[k]} Hz); grids differ`);
 			}
 		});
 		curve.db.forEach((level, k) => {
-			if (Number.isNaN(level) || level === Infinity) throw new Error(`curve ${i} level at point ${k} is ${level}`);
+			if (Number.isNaN(level) || level === Infinity) throw new AnalysisInputError('invalid_option', `curve ${i} level at point ${k} is ${level}`);
 		});
 	});
 	const db = grid.map((_, k) => {
@@ -121,9 +133,12 @@ export function powerAverageCurves(curves: { freqHz: number[]; db: number[] }[])
 	return { freqHz: [...grid], db };
 }
 
-/** Reverberation-type metrics, for which a relative change means something. */
+/**
+ * Reverberation-type metrics, for which a relative change means something: EDT, T20, T30,
+ * T60, Tmid, Ts, also with a unit suffix as the engine names them (edtS, t30S, tsMs).
+ */
 export function isTimeMetric(metric: string): boolean {
-	return /^(edt|t\d{2}|t60|tmid|ts)$/i.test(metric);
+	return /^(edt|t\d{2}|tmid|ts)(s|ms)?$/i.test(metric);
 }
 
 /**
@@ -133,8 +148,8 @@ export function isTimeMetric(metric: string): boolean {
 export function bandDifferences(
 	baseline: AveragedBand[],
 	treated: AveragedBand[],
-	metrics: string[],
-	options: { timeMetrics?: string[] } = {}
+	metrics: readonly string[],
+	options: { timeMetrics?: readonly string[] } = {}
 ): BandDifference[] {
 	const isTime = (metric: string) => options.timeMetrics?.includes(metric) ?? isTimeMetric(metric);
 	return unionOfCenters([baseline, treated]).map((centerHz) => {
@@ -163,20 +178,20 @@ export function bandDifferences(
 }
 
 /**
- * Positions whose metric (default T30) differs from the mean of the other positions in the
+ * Positions whose metric (default t30S, the engine's T30) differs from the mean of the other positions in the
  * same band by more than `fraction` of that mean (default 0.2: common practice, no source).
  * The position itself is left out of its reference so one bad capture cannot mask itself.
  */
 export function outlierPositions(
-	positions: BandMetrics[][],
+	positions: BandRow[][],
 	options: { metric?: string; fraction?: number } = {}
 ): OutlierFlag[] {
-	const metric = options.metric ?? 'T30';
+	const metric = options.metric ?? 't30S';
 	const fraction = options.fraction ?? 0.2;
-	if (!Number.isFinite(fraction) || fraction <= 0) throw new Error(`fraction must be a finite number > 0, got ${fraction}`);
+	if (!Number.isFinite(fraction) || fraction <= 0) throw new AnalysisInputError('invalid_option', `fraction must be a finite number > 0, got ${fraction}`);
 	const flags: OutlierFlag[] = [];
 	for (const centerHz of unionOfCenters(positions)) {
-		const values = positions.map((bands) => finiteOrNull(bands.find((b) => sameBand(b.centerHz, centerHz))?.[metric]));
+		const values = positions.map((bands) => metricOf(bands.find((b) => sameBand(b.centerHz, centerHz)), metric));
 		values.forEach((value, positionIndex) => {
 			if (value === null) return;
 			const others = values.filter((v, i): v is number => i !== positionIndex && v !== null);

@@ -30,46 +30,47 @@ export const EVALUATION_RANGES = {
 export type DecayMetric = keyof typeof EVALUATION_RANGES;
 
 /**
- * Least-squares line through the decay curve between the first points at or below `topDb` and
- * `bottomDb`; null when the curve never reaches `bottomDb` (the range is not available).
+ * Least-squares line of 10·lg E against time through the decay curve E (linear, normalised to 1
+ * at the start point) between the first points at or below `topDb` and `bottomDb`; null when the
+ * curve never reaches `bottomDb` (the range is not available).
  */
-export function fitDecayRange(curveDb: Float64Array, sampleRate: number, range: EvaluationRange): DecayFit | null {
+export function fitDecayRange(decay: Float64Array, sampleRate: number, range: EvaluationRange): DecayFit | null {
 	const { topDb, bottomDb } = range;
 	if (!(bottomDb < topDb)) throw new RangeError(`evaluation range must go down: ${topDb} → ${bottomDb} dB`);
+	const top = 10 ** (topDb / 10);
+	const bottom = 10 ** (bottomDb / 10);
 	let first = 0;
-	while (first < curveDb.length && curveDb[first] > topDb) first++;
+	while (first < decay.length && decay[first] > top) first++;
 	let last = first;
-	while (last < curveDb.length && curveDb[last] > bottomDb) last++;
-	if (last >= curveDb.length || last - first < 2) return null;
+	while (last < decay.length && decay[last] > bottom) last++;
+	if (last >= decay.length || last - first < 2) return null;
 
+	// One pass: with x centred, Σ(x − x̄)(y − ȳ) = Σ(x − x̄)·y, and Σ(y − ȳ)² = Σy² − n·ȳ².
 	const count = last - first + 1;
-	let meanT = 0;
-	let meanL = 0;
-	for (let i = first; i <= last; i++) {
-		meanT += i;
-		meanL += curveDb[i];
-	}
-	meanT /= count;
-	meanL /= count;
-	let sxx = 0;
+	const meanX = (first + last) / 2;
+	let sumY = 0;
+	let sumYY = 0;
 	let sxy = 0;
-	let syy = 0;
+	let sxx = 0;
 	for (let i = first; i <= last; i++) {
-		const dt = i - meanT;
-		const dl = curveDb[i] - meanL;
-		sxx += dt * dt;
-		sxy += dt * dl;
-		syy += dl * dl;
+		const y = 10 * Math.log10(decay[i]);
+		const dx = i - meanX;
+		sumY += y;
+		sumYY += y * y;
+		sxy += dx * y;
+		sxx += dx * dx;
 	}
+	const meanY = sumY / count;
+	const syy = Math.max(0, sumYY - count * meanY * meanY);
 	const slopePerSample = sxy / sxx;
 	const slopeDbPerS = slopePerSample * sampleRate;
 	if (!(slopeDbPerS < 0)) return null;
-	const r = syy > 0 ? sxy / Math.sqrt(sxx * syy) : -1;
+	const r = syy > 0 ? Math.max(-1, Math.min(1, sxy / Math.sqrt(sxx * syy))) : -1;
 	return {
 		startS: first / sampleRate,
 		endS: last / sampleRate,
 		slopeDbPerS,
-		interceptDb: meanL - slopePerSample * meanT,
+		interceptDb: meanY - slopePerSample * meanX,
 		reverberationTimeS: -60 / slopeDbPerS,
 		r,
 		nonLinearityPermille: 1000 * (1 - r * r)

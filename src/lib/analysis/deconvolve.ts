@@ -55,8 +55,12 @@ const DEFAULT_MAX_LENGTH_S = 10;
 const DEFAULT_IN_BAND_REGULARISATION_DB = -60;
 /** Out of band the regularisation dominates: response there is suppressed by ~40 dB or more. */
 const OUT_OF_BAND_REGULARISATION = 100;
-/** The regularisation rises over one third of an octave outside [f₁, f₂]. */
-const TRANSITION_OCTAVES = 1 / 3;
+/**
+ * The regularisation rises over this much of an octave just inside [f₁, f₂], where the sweep still
+ * has its energy: rising outside would leave a zone where the reference is gone but the inverse is
+ * not yet held down, and harmonics there (which reach 2·f₂) would be amplified into long ringing.
+ */
+const TRANSITION_OCTAVES = 1 / 24;
 const HARMONIC_ORDERS = [2, 3, 4, 5];
 /** Shortest impulse response worth returning. */
 const MIN_LENGTH_S = 0.05;
@@ -141,16 +145,15 @@ function sweepLawFrom(options: DeconvolutionOptions, reference: Float64Array, sa
 }
 
 /**
- * Regularisation ε(f) of the inverse X*/(|X|² + ε) (Kirkeby & Nelson, "Digital filter design for
+ * Regularisation ε(f) of the inverse conj(X) / (|X|² + ε) (Kirkeby & Nelson, "Digital filter design for
  * inversion problems in sound reproduction", JAES 47(7/8), 1999 — from memory): small inside the
- * sweep's band, large outside, with a raised-cosine rise in log frequency between.
+ * sweep's band, large outside, with a raised-cosine rise in log frequency at the band's inner edges.
  */
 function regularisation(frequencyHz: number, law: SweepLaw, inBand: number, outOfBand: number): number {
-	const octavesOutside =
-		frequencyHz <= 0 ? Infinity : Math.max(Math.log2(law.f1Hz / frequencyHz), Math.log2(frequencyHz / law.f2Hz), 0);
-	if (octavesOutside === 0) return inBand;
-	if (octavesOutside >= TRANSITION_OCTAVES) return outOfBand;
-	const blend = 0.5 * (1 - Math.cos((Math.PI * octavesOutside) / TRANSITION_OCTAVES));
+	if (frequencyHz <= law.f1Hz || frequencyHz >= law.f2Hz) return outOfBand;
+	const octavesInside = Math.min(Math.log2(frequencyHz / law.f1Hz), Math.log2(law.f2Hz / frequencyHz));
+	if (octavesInside >= TRANSITION_OCTAVES) return inBand;
+	const blend = 0.5 * (1 + Math.cos((Math.PI * octavesInside) / TRANSITION_OCTAVES));
 	return Math.exp(Math.log(inBand) + blend * (Math.log(outOfBand) - Math.log(inBand)));
 }
 

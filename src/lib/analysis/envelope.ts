@@ -1,5 +1,6 @@
 // Analytic signal and energy–time curve: the smooth envelope of an impulse response.
 import FFT from 'fft.js';
+import { AnalysisInputError } from './errors';
 
 /** Level given to samples whose energy is zero, instead of −Infinity. */
 export const ENERGY_FLOOR_DB = -200;
@@ -30,7 +31,7 @@ export class AnalyticSignalPlan {
 
 	constructor(maxLength: number) {
 		if (!Number.isInteger(maxLength) || maxLength < 1) {
-			throw new Error(`analytic signal length must be a positive integer, got ${maxLength}`);
+			throw new RangeError(`analytic signal length must be a positive integer, got ${maxLength}`);
 		}
 		this.maxLength = maxLength;
 		this.fftSize = nextPowerOfTwo(maxLength);
@@ -44,11 +45,11 @@ export class AnalyticSignalPlan {
 	transform(x: Float64Array, re: Float64Array, im: Float64Array): void {
 		const n = x.length;
 		if (n < 1 || n > this.maxLength) {
-			throw new Error(`input length ${n} outside 1…${this.maxLength} of this plan`);
+			throw new RangeError(`input length ${n} outside 1…${this.maxLength} of this plan`);
 		}
-		if (re.length < n || im.length < n) throw new Error('output arrays are shorter than the input');
+		if (re.length < n || im.length < n) throw new RangeError('output arrays are shorter than the input');
 		for (let i = 0; i < n; i++) {
-			if (!Number.isFinite(x[i])) throw new Error(`sample ${i} is not a finite number (${x[i]})`);
+			if (!Number.isFinite(x[i])) throw new AnalysisInputError('non_finite_samples', `sample ${i} is not a finite number (${x[i]})`);
 		}
 		const size = this.fftSize;
 		const half = size / 2;
@@ -72,7 +73,7 @@ export class AnalyticSignalPlan {
 }
 
 export function analyticSignal(x: Float64Array): AnalyticSignal {
-	if (x.length === 0) throw new Error('cannot take the analytic signal of an empty signal');
+	if (x.length === 0) throw new AnalysisInputError('no_samples', 'cannot take the analytic signal of an empty signal');
 	const plan = new AnalyticSignalPlan(x.length);
 	const re = new Float64Array(x.length);
 	const im = new Float64Array(x.length);

@@ -14,8 +14,8 @@ export function fftSizeFor(n: number): number {
 
 /**
  * Real-input FFT of a power-of-two size N, computed with one complex FFT of size N/2 (the samples
- * taken as interleaved complex pairs) and a twiddle pass — the standard packing, e.g. Oppenheim &
- * Schafer, Discrete-Time Signal Processing, 3rd ed., §9.3 problems on real-data FFTs.
+ * taken as interleaved complex pairs) and a twiddle pass — the standard packing (Press et al.,
+ * Numerical Recipes, "FFT of real functions"; from memory).
  * Spectra are half spectra: bins 0…N/2, interleaved (re, im), length N + 2. The inverse is scaled by 1/N.
  * The plan owns its tables and one scratch buffer: reuse it, but not from two callers at once.
  */

@@ -32,7 +32,7 @@ const abs = (a: Complex): number => Math.hypot(a.re, a.im);
  * Digital Butterworth band-pass of the given order on [lowHz, highHz] as second-order sections:
  * analog prototype poles −e^(jπm/2N) (Butterworth), low-pass → band-pass substitution
  * s → (s² + ω₀²)/(B·s), bilinear transform with the edges pre-warped, ω = 2·fs·tan(πf/fs)
- * (Oppenheim & Schafer, Discrete-Time Signal Processing, §7.1), then poles paired with their
+ * (Oppenheim & Schafer, Discrete-Time Signal Processing, bilinear transformation; from memory), then poles paired with their
  * nearest zeros, the poles nearest the unit circle last — the construction of
  * scipy.signal.butter(order, [low, high], btype='band', fs=fs, output='sos').
  */
@@ -126,8 +126,33 @@ export function sectionsPowerGain(sos: SecondOrderSections, frequencyHz: number,
 	return gain;
 }
 
-/** Filters in place, forward in time, transposed direct form II per section, zero initial state. */
-export function filterForwardInPlace(sos: SecondOrderSections, data: Float64Array, start = 0, end = data.length): void {
+/**
+ * Runs the cascade over data[start…end) in place, forward (step 1) or backward (step −1) in time,
+ * transposed direct form II, zero initial state. Three sections — the band filters — run in one
+ * sweep over the data with the state in locals; other counts section by section.
+ */
+function runCascade(sos: SecondOrderSections, data: Float64Array, start: number, end: number, step: 1 | -1): void {
+	if (!(start >= 0 && end <= data.length && start <= end)) throw new RangeError(`bad range ${start}…${end} of ${data.length} samples`);
+	const first = step === 1 ? start : end - 1;
+	const stop = step === 1 ? end : start - 1;
+	if (sos.length === 18) {
+		const [b00, b01, b02, , a01, a02, b10, b11, b12, , a11, a12, b20, b21, b22, , a21, a22] = sos;
+		let s01 = 0, s02 = 0, s11 = 0, s12 = 0, s21 = 0, s22 = 0;
+		for (let i = first; i !== stop; i += step) {
+			const x = data[i];
+			const y0 = b00 * x + s01;
+			s01 = b01 * x - a01 * y0 + s02;
+			s02 = b02 * x - a02 * y0;
+			const y1 = b10 * y0 + s11;
+			s11 = b11 * y0 - a11 * y1 + s12;
+			s12 = b12 * y0 - a12 * y1;
+			const y2 = b20 * y1 + s21;
+			s21 = b21 * y1 - a21 * y2 + s22;
+			s22 = b22 * y1 - a22 * y2;
+			data[i] = y2;
+		}
+		return;
+	}
 	for (let row = 0; row < sos.length; row += 6) {
 		const b0 = sos[row];
 		const b1 = sos[row + 1];
@@ -136,7 +161,7 @@ export function filterForwardInPlace(sos: SecondOrderSections, data: Float64Arra
 		const a2 = sos[row + 5];
 		let z1 = 0;
 		let z2 = 0;
-		for (let i = start; i < end; i++) {
+		for (let i = first; i !== stop; i += step) {
 			const x = data[i];
 			const y = b0 * x + z1;
 			z1 = b1 * x - a1 * y + z2;
@@ -146,24 +171,14 @@ export function filterForwardInPlace(sos: SecondOrderSections, data: Float64Arra
 	}
 }
 
+/** Filters data[start…end) in place, forward in time (causal), zero initial state. */
+export function filterForwardInPlace(sos: SecondOrderSections, data: Float64Array, start = 0, end = data.length): void {
+	runCascade(sos, data, start, end, 1);
+}
+
 /** The same, running from the end to the start (time-reversed filtering). */
 export function filterBackwardInPlace(sos: SecondOrderSections, data: Float64Array, start = 0, end = data.length): void {
-	for (let row = 0; row < sos.length; row += 6) {
-		const b0 = sos[row];
-		const b1 = sos[row + 1];
-		const b2 = sos[row + 2];
-		const a1 = sos[row + 4];
-		const a2 = sos[row + 5];
-		let z1 = 0;
-		let z2 = 0;
-		for (let i = end - 1; i >= start; i--) {
-			const x = data[i];
-			const y = b0 * x + z1;
-			z1 = b1 * x - a1 * y + z2;
-			z2 = b2 * x - a2 * y;
-			data[i] = y;
-		}
-	}
+	runCascade(sos, data, start, end, -1);
 }
 
 /** Butterworth order of each pass: 3 (6th-order band-pass) for octaves and thirds. */
@@ -175,7 +190,7 @@ export interface BandFilter {
 	sections: SecondOrderSections;
 	/** Exact bandwidth f₂ − f₁, the B of the B·T bias criterion. */
 	bandwidthHz: number;
-	/** Samples of mirrored signal added at each end so the passes start from a settled state. */
+	/** Samples of mirrored signal added after the end so the backward pass starts from a settled state. */
 	padding: number;
 }
 
@@ -184,10 +199,15 @@ export interface BandFilterBank {
 	kind: BandKind;
 	filters: BandFilter[];
 	/**
-	 * Zero-phase band signal of input[start…end): forward then backward through the band's sections,
-	 * each end extended by an even mirror image so the filter's start-up transient falls outside.
+	 * Zero-phase band signal of input[start…end): forward then backward through the band's sections.
+	 * The end is extended by its even mirror image (the background goes on), so the backward pass's
+	 * start-up transient falls outside; the start is not mirrored, which would echo the direct
+	 * sound before itself — start the range a little before the onset instead.
+	 * The result is a view of `scratch` when one of scratchLength(end − start) samples is given.
 	 */
-	filterZeroPhase(bandIndex: number, input: Float64Array, start?: number, end?: number): Float64Array;
+	filterZeroPhase(bandIndex: number, input: Float64Array, start?: number, end?: number, scratch?: Float64Array): Float64Array;
+	/** Scratch length filterZeroPhase needs for `length` input samples in any band. */
+	scratchLength(length: number): number;
 }
 
 /**
@@ -211,22 +231,22 @@ export function createBandFilterBank(sampleRate: number, kind: BandKind): BandFi
 		};
 	});
 
-	function filterZeroPhase(bandIndex: number, input: Float64Array, start = 0, end = input.length): Float64Array {
+	const maxPadding = Math.max(...filters.map((filter) => filter.padding));
+	const scratchLength = (length: number) => length + Math.min(maxPadding, Math.max(0, length - 1));
+
+	function filterZeroPhase(bandIndex: number, input: Float64Array, start = 0, end = input.length, scratch?: Float64Array): Float64Array {
 		const filter = filters[bandIndex];
 		if (!filter) throw new RangeError(`no band ${bandIndex}: the bank has ${filters.length} bands`);
 		if (!(start >= 0 && end <= input.length && end > start)) throw new RangeError(`bad range ${start}…${end} of ${input.length} samples`);
 		const length = end - start;
 		const pad = Math.min(filter.padding, length - 1);
-		const work = new Float64Array(length + 2 * pad);
-		work.set(input.subarray(start, end), pad);
-		for (let i = 1; i <= pad; i++) {
-			work[pad - i] = input[start + i];
-			work[pad + length - 1 + i] = input[end - 1 - i];
-		}
+		const work = scratch && scratch.length >= length + pad ? scratch.subarray(0, length + pad) : new Float64Array(length + pad);
+		work.set(input.subarray(start, end));
+		for (let i = 1; i <= pad; i++) work[length - 1 + i] = input[end - 1 - i];
 		filterForwardInPlace(filter.sections, work);
 		filterBackwardInPlace(filter.sections, work);
-		return work.subarray(pad, pad + length);
+		return work.subarray(0, length);
 	}
 
-	return { sampleRate, kind, filters, filterZeroPhase };
+	return { sampleRate, kind, filters, filterZeroPhase, scratchLength };
 }

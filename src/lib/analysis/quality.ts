@@ -7,6 +7,9 @@ import type { DecayMetric } from './decay-fit';
  */
 export const REQUIRED_PEAK_TO_NOISE_DB: Record<DecayMetric, number> = { edt: 20, t20: 35, t30: 45 };
 
+/** Below this peak-to-noise ratio no decay stands out of the background: energy parameters are not given (common practice, no source). */
+export const MIN_PEAK_TO_NOISE_FOR_ENERGY_DB = 20;
+
 export const METRIC_LABELS: Record<DecayMetric, string> = { edt: 'EDT', t20: 'T20', t30: 'T30' };
 
 /**
@@ -29,6 +32,10 @@ export function peakToNoiseProblem(metric: DecayMetric, peakToNoiseDb: number): 
 	const needed = REQUIRED_PEAK_TO_NOISE_DB[metric];
 	if (peakToNoiseDb >= needed) return null;
 	return `peak-to-noise ${Math.round(peakToNoiseDb)} dB — ${METRIC_LABELS[metric]} needs ${needed} dB: measure louder or longer`;
+}
+
+export function energyProblem(peakToNoiseDb: number): string {
+	return `peak-to-noise ${Math.round(peakToNoiseDb)} dB — C50, C80, D50 and Ts need ${MIN_PEAK_TO_NOISE_FOR_ENERGY_DB} dB: measure louder or longer`;
 }
 
 export function rangeNotReachedProblem(metric: DecayMetric, bottomDb: number): string {

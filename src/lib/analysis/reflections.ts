@@ -1,5 +1,6 @@
 // Early reflections: peaks of the energy–time curve, first-order image sources, and the
 // pairing of the two so a peak can be named after the surface that produced it.
+import { AnalysisInputError } from './errors';
 import { analyticEnvelope } from './envelope';
 import { validateRoom, type RoomBox } from './room';
 
@@ -45,24 +46,24 @@ export interface DetectReflectionsOptions {
 	minSeparationMs?: number;
 	/** Time after the direct peak that belongs to the direct sound itself (default 0.5 ms). */
 	directGuardMs?: number;
+	/** Span after directIndex searched for the direct-sound peak (default 1 ms; an onset precedes the peak). */
+	directSearchMs?: number;
 }
 
-/** The direct peak is searched from the onset index over this span (onset precedes the peak). */
-const DIRECT_PEAK_SEARCH_MS = 1;
 /** Extra samples kept around the analysed span so the envelope is not distorted at its edges. */
 const ENVELOPE_MARGIN_MS = 10;
 
 /** Speed of sound in dry air, m/s. */
 export function speedOfSound(temperatureC = 20): number {
 	if (!Number.isFinite(temperatureC) || temperatureC <= -273.15) {
-		throw new Error(`temperature must be a finite number above −273.15 °C, got ${temperatureC}`);
+		throw new AnalysisInputError('invalid_option', `temperature must be a finite number above −273.15 °C, got ${temperatureC}`);
 	}
 	// Ideal gas: c = 331.3·√(1 + θ/273.15) m/s, 331.3 m/s at 0 °C (Kinsler et al., Fundamentals of Acoustics; from memory)
 	return 331.3 * Math.sqrt(1 + temperatureC / 273.15);
 }
 
 function requirePositive(name: string, value: number): void {
-	if (!Number.isFinite(value) || value <= 0) throw new Error(`${name} must be a finite number > 0, got ${value}`);
+	if (!Number.isFinite(value) || value <= 0) throw new AnalysisInputError('invalid_option', `${name} must be a finite number > 0, got ${value}`);
 }
 
 /**
@@ -70,7 +71,7 @@ function requirePositive(name: string, value: number): void {
  * between direct peak + directGuardMs and direct peak + windowMs.
  *
  * Choices: delays and levels are taken re the direct-sound peak, the largest envelope value
- * within 1 ms after directIndex (an onset index precedes the peak). Peaks are kept if at or
+ * within directSearchMs (1 ms) after directIndex (an onset index precedes the peak). Peaks are kept if at or
  * above thresholdDb; among peaks closer than minSeparationMs only the strongest survives,
  * which also removes the ripple the Hilbert transform puts beside a sharp peak. Positions
  * are whole samples. The result is sorted by delay.
@@ -81,22 +82,26 @@ export function detectReflections(
 	directIndex: number,
 	options: DetectReflectionsOptions = {}
 ): DetectedReflection[] {
-	if (ir.length === 0) throw new Error('impulse response is empty');
+	if (ir.length === 0) throw new AnalysisInputError('no_samples', 'impulse response is empty');
 	requirePositive('sampleRate', sampleRate);
 	if (!Number.isInteger(directIndex) || directIndex < 0 || directIndex >= ir.length) {
-		throw new Error(`directIndex must be an integer in 0…${ir.length - 1}, got ${directIndex}`);
+		throw new AnalysisInputError('invalid_option', `directIndex must be an integer in 0…${ir.length - 1}, got ${directIndex}`);
 	}
 	const windowMs = options.windowMs ?? 50;
 	const thresholdDb = options.thresholdDb ?? -20;
 	const minSeparationMs = options.minSeparationMs ?? 0.5;
 	const directGuardMs = options.directGuardMs ?? 0.5;
+	const directSearchMs = options.directSearchMs ?? 1;
 	requirePositive('windowMs', windowMs);
+	if (!Number.isFinite(directSearchMs) || directSearchMs < 0) {
+		throw new AnalysisInputError('invalid_option', `directSearchMs must be a finite number ≥ 0, got ${directSearchMs}`);
+	}
 	requirePositive('minSeparationMs', minSeparationMs);
 	if (!Number.isFinite(directGuardMs) || directGuardMs < 0 || directGuardMs >= windowMs) {
-		throw new Error(`directGuardMs must be ≥ 0 and below windowMs, got ${directGuardMs}`);
+		throw new AnalysisInputError('invalid_option', `directGuardMs must be ≥ 0 and below windowMs, got ${directGuardMs}`);
 	}
 	if (!Number.isFinite(thresholdDb) || thresholdDb > 0) {
-		throw new Error(`thresholdDb must be a finite level ≤ 0 dB re the direct sound, got ${thresholdDb}`);
+		throw new AnalysisInputError('invalid_option', `thresholdDb must be a finite level ≤ 0 dB re the direct sound, got ${thresholdDb}`);
 	}
 	const c = speedOfSound(options.temperatureC ?? 20);
 	const samples = (ms: number) => Math.round((ms * sampleRate) / 1000);
@@ -105,16 +110,16 @@ export function detectReflections(
 	const spanStart = Math.max(0, directIndex - samples(ENVELOPE_MARGIN_MS));
 	const spanEnd = Math.min(
 		ir.length,
-		directIndex + samples(DIRECT_PEAK_SEARCH_MS + windowMs + ENVELOPE_MARGIN_MS) + 2
+		directIndex + samples(directSearchMs + windowMs + ENVELOPE_MARGIN_MS) + 2
 	);
 	const envelope = analyticEnvelope(ir.subarray(spanStart, spanEnd));
 	const at = (index: number) => envelope[index - spanStart];
 
 	let directPeak = directIndex;
-	const directSearchEnd = Math.min(spanEnd - 1, directIndex + samples(DIRECT_PEAK_SEARCH_MS));
+	const directSearchEnd = Math.min(spanEnd - 1, directIndex + samples(directSearchMs));
 	for (let i = directIndex; i <= directSearchEnd; i++) if (at(i) > at(directPeak)) directPeak = i;
 	const directLevel = at(directPeak);
-	if (!(directLevel > 0)) throw new Error(`no direct sound found near sample ${directIndex}`);
+	if (!(directLevel > 0)) throw new AnalysisInputError('silent_signal', `no direct sound found near sample ${directIndex}`);
 
 	const first = directPeak + Math.max(1, samples(directGuardMs));
 	const last = Math.min(directPeak + samples(windowMs), spanEnd - 2);
@@ -149,10 +154,10 @@ function requireInside(room: RoomBox, point: Point3, name: string): void {
 	for (const [axis, size, along] of axes) {
 		const value = point?.[axis];
 		if (typeof value !== 'number' || !Number.isFinite(value)) {
-			throw new Error(`${name} ${axis} must be a finite number of metres, got ${String(value)}`);
+			throw new AnalysisInputError('invalid_option', `${name} ${axis} must be a finite number of metres, got ${String(value)}`);
 		}
 		if (value <= 0 || value >= size) {
-			throw new Error(`${name} ${axis} = ${value} m lies outside the room (0…${size} m along its ${along})`);
+			throw new AnalysisInputError('invalid_option', `${name} ${axis} = ${value} m lies outside the room (0…${size} m along its ${along})`);
 		}
 	}
 }
@@ -174,7 +179,7 @@ export function firstOrderImages(
 	const c = speedOfSound(temperatureC);
 	const distance = (p: Point3) => Math.hypot(p.x - mic.x, p.y - mic.y, p.z - mic.z);
 	const directM = distance(source);
-	if (directM < 1e-3) throw new Error('source and mic are at the same point; no direct path');
+	if (directM < 1e-3) throw new AnalysisInputError('invalid_option', 'source and mic are at the same point; no direct path');
 	const images: [Surface, Point3][] = [
 		['front', { ...source, x: -source.x }],
 		['back', { ...source, x: 2 * room.lengthM - source.x }],
@@ -209,7 +214,7 @@ export function attributeReflections(
 	toleranceMs = 0.5
 ): DetectedReflection[] {
 	if (!Number.isFinite(toleranceMs) || toleranceMs < 0) {
-		throw new Error(`toleranceMs must be a finite number ≥ 0, got ${toleranceMs}`);
+		throw new AnalysisInputError('invalid_option', `toleranceMs must be a finite number ≥ 0, got ${toleranceMs}`);
 	}
 	const pairs: { d: number; p: number; gap: number }[] = [];
 	detected.forEach((reflection, d) => {

@@ -1,6 +1,7 @@
 // Frequency response of an impulse response, fractional-octave smoothing, and a log-spaced
 // decimation of the curve for charts.
 import FFT from 'fft.js';
+import { AnalysisInputError } from './errors';
 
 export const SMOOTHING_FRACTIONS = [1, 3, 6, 12, 24] as const;
 export type SmoothingFraction = (typeof SMOOTHING_FRACTIONS)[number];
@@ -40,7 +41,7 @@ export class PowerSpectrumPlan {
 
 	constructor(fftSize: number) {
 		if (!isPowerOfTwo(fftSize) || fftSize < 4) {
-			throw new Error(`FFT size must be a power of two ≥ 4, got ${fftSize}`);
+			throw new RangeError(`FFT size must be a power of two ≥ 4, got ${fftSize}`);
 		}
 		this.fftSize = fftSize;
 		this.binCount = fftSize / 2 + 1;
@@ -57,9 +58,9 @@ export class PowerSpectrumPlan {
 
 	/** 10·lg|X(k)|² of the first binCount bins of x zero-padded to fftSize, floored at POWER_FLOOR_DB. */
 	powerDb(x: Float64Array, binCount = this.binCount, out = new Float64Array(binCount)): Float64Array {
-		if (x.length > this.fftSize) throw new Error(`signal of ${x.length} samples exceeds FFT size ${this.fftSize}`);
+		if (x.length > this.fftSize) throw new RangeError(`signal of ${x.length} samples exceeds FFT size ${this.fftSize}`);
 		this.checkBinCount(binCount);
-		if (out.length < binCount) throw new Error('output array is shorter than binCount');
+		if (out.length < binCount) throw new RangeError('output array is shorter than binCount');
 		this.padded.fill(0);
 		this.padded.set(x);
 		this.fft.realTransform(this.spectrum, this.padded); // fills bins 0…N/2
@@ -73,7 +74,7 @@ export class PowerSpectrumPlan {
 
 	private checkBinCount(binCount: number): number {
 		if (!Number.isInteger(binCount) || binCount < 1 || binCount > this.binCount) {
-			throw new Error(`binCount must be an integer in 1…${this.binCount}, got ${binCount}`);
+			throw new RangeError(`binCount must be an integer in 1…${this.binCount}, got ${binCount}`);
 		}
 		return binCount;
 	}
@@ -93,10 +94,10 @@ export function applyHalfHannFadeOut(x: Float64Array, length: number): void {
 }
 
 function checkSignal(ir: Float64Array, sampleRate: number): void {
-	if (ir.length === 0) throw new Error('impulse response is empty');
-	if (!Number.isFinite(sampleRate) || sampleRate <= 0) throw new Error(`sampleRate must be > 0, got ${sampleRate}`);
+	if (ir.length === 0) throw new AnalysisInputError('no_samples', 'impulse response is empty');
+	if (!Number.isFinite(sampleRate) || sampleRate <= 0) throw new AnalysisInputError('invalid_option', `sampleRate must be > 0, got ${sampleRate}`);
 	for (let i = 0; i < ir.length; i++) {
-		if (!Number.isFinite(ir[i])) throw new Error(`sample ${i} is not a finite number (${ir[i]})`);
+		if (!Number.isFinite(ir[i])) throw new AnalysisInputError('non_finite_samples', `sample ${i} is not a finite number (${ir[i]})`);
 	}
 }
 
@@ -121,31 +122,31 @@ export function frequencyResponse(
 	checkSignal(ir, sampleRate);
 	const startIndex = options.startIndex ?? 0;
 	if (!Number.isInteger(startIndex) || startIndex < 0 || startIndex >= ir.length) {
-		throw new Error(`startIndex must be an integer in 0…${ir.length - 1}, got ${startIndex}`);
+		throw new AnalysisInputError('invalid_option', `startIndex must be an integer in 0…${ir.length - 1}, got ${startIndex}`);
 	}
 	if (options.windowS !== undefined && !(Number.isFinite(options.windowS) && options.windowS > 0)) {
-		throw new Error(`windowS must be a finite number of seconds > 0, got ${options.windowS}`);
+		throw new AnalysisInputError('invalid_option', `windowS must be a finite number of seconds > 0, got ${options.windowS}`);
 	}
 	const wanted = Math.max(1, Math.round((options.windowS ?? 1) * sampleRate));
 	const length = Math.min(ir.length - startIndex, wanted);
 	const segment = ir.slice(startIndex, startIndex + length);
 	applyHalfHannFadeOut(segment, Math.floor(0.1 * length));
 	const fftSize = options.fftSize ?? nextPowerOfTwo(length);
-	if (fftSize < length) throw new Error(`fftSize ${fftSize} is shorter than the ${length}-sample window`);
+	if (fftSize < length) throw new AnalysisInputError('invalid_option', `fftSize ${fftSize} is shorter than the ${length}-sample window`);
 	const plan = new PowerSpectrumPlan(fftSize);
 	return { freqHz: plan.frequencies(sampleRate), powerDb: plan.powerDb(segment) };
 }
 
 function checkCurve(freqHz: ArrayLike<number>, values: ArrayLike<number>, what: string): void {
 	if (freqHz.length !== values.length) {
-		throw new Error(`${what}: ${freqHz.length} frequencies but ${values.length} values`);
+		throw new AnalysisInputError('invalid_option', `${what}: ${freqHz.length} frequencies but ${values.length} values`);
 	}
-	if (freqHz.length === 0) throw new Error(`${what}: the curve is empty`);
+	if (freqHz.length === 0) throw new AnalysisInputError('invalid_option', `${what}: the curve is empty`);
 	for (let k = 0; k < freqHz.length; k++) {
 		if (!Number.isFinite(freqHz[k]) || freqHz[k] < 0 || (k > 0 && freqHz[k] <= freqHz[k - 1])) {
-			throw new Error(`${what}: frequencies must be finite, ≥ 0 and increasing (index ${k})`);
+			throw new AnalysisInputError('invalid_option', `${what}: frequencies must be finite, ≥ 0 and increasing (index ${k})`);
 		}
-		if (Number.isNaN(values[k])) throw new Error(`${what}: value at index ${k} is not a number`);
+		if (Number.isNaN(values[k])) throw new AnalysisInputError('invalid_option', `${what}: value at index ${k} is not a number`);
 	}
 }
 
@@ -163,7 +164,7 @@ export function smoothFractionalOctave(
 	fraction: SmoothingFraction
 ): Float64Array {
 	if (!(SMOOTHING_FRACTIONS as readonly number[]).includes(fraction)) {
-		throw new Error(`fraction must be one of ${SMOOTHING_FRACTIONS.join(', ')}, got ${fraction}`);
+		throw new AnalysisInputError('invalid_option', `fraction must be one of ${SMOOTHING_FRACTIONS.join(', ')}, got ${fraction}`);
 	}
 	checkCurve(freqHz, powerDb, 'smoothFractionalOctave');
 	const n = freqHz.length;
@@ -215,21 +216,21 @@ export function logSpacedCurve(
 	checkCurve(freqHz, powerDb, 'logSpacedCurve');
 	const pointsPerOctave = options.pointsPerOctave ?? 48;
 	if (!Number.isInteger(pointsPerOctave) || pointsPerOctave < 1 || pointsPerOctave > 1000) {
-		throw new Error(`pointsPerOctave must be an integer in 1…1000, got ${pointsPerOctave}`);
+		throw new AnalysisInputError('invalid_option', `pointsPerOctave must be an integer in 1…1000, got ${pointsPerOctave}`);
 	}
 	const fMinHz = options.fMinHz ?? 20;
 	const fMaxHz = options.fMaxHz ?? 20000;
 	if (!(Number.isFinite(fMinHz) && fMinHz > 0 && Number.isFinite(fMaxHz) && fMaxHz > fMinHz)) {
-		throw new Error(`need 0 < fMinHz < fMaxHz, got ${fMinHz} and ${fMaxHz}`);
+		throw new AnalysisInputError('invalid_option', `need 0 < fMinHz < fMaxHz, got ${fMinHz} and ${fMaxHz}`);
 	}
 	for (let k = 0; k < powerDb.length; k++) {
-		if (!Number.isFinite(powerDb[k])) throw new Error(`logSpacedCurve: value at index ${k} is not finite`);
+		if (!Number.isFinite(powerDb[k])) throw new AnalysisInputError('invalid_option', `logSpacedCurve: value at index ${k} is not finite`);
 	}
 	const firstPositive = freqHz[0] > 0 ? 0 : 1;
-	if (firstPositive >= freqHz.length) throw new Error('logSpacedCurve: no positive frequency in the input');
+	if (firstPositive >= freqHz.length) throw new AnalysisInputError('invalid_option', 'logSpacedCurve: no positive frequency in the input');
 	const bottom = Math.max(fMinHz, freqHz[firstPositive]);
 	const top = Math.min(fMaxHz, freqHz[freqHz.length - 1]);
-	if (bottom > top) throw new Error(`logSpacedCurve: ${fMinHz}…${fMaxHz} Hz lies outside the input's range`);
+	if (bottom > top) throw new AnalysisInputError('invalid_option', `logSpacedCurve: ${fMinHz}…${fMaxHz} Hz lies outside the input's range`);
 
 	const count = Math.floor(pointsPerOctave * Math.log2(top / bottom) + 1e-9) + 1;
 	const out: LogSpacedCurve = { freqHz: new Array(count), db: new Array(count) };

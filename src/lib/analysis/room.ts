@@ -1,4 +1,5 @@
 // Rectangular-room quantities: dimensions, axial/tangential/oblique modes, Schroeder frequency.
+import { AnalysisInputError } from './errors';
 
 export interface RoomBox {
 	lengthM: number;
@@ -23,15 +24,17 @@ const MAX_MODE_COUNT = 200_000;
 const DIMENSIONS: readonly (keyof RoomBox)[] = ['lengthM', 'widthM', 'heightM'];
 
 export function validateRoom(room: RoomBox): void {
-	if (room === null || typeof room !== 'object') throw new Error('room must be an object with lengthM, widthM and heightM');
+	if (room === null || typeof room !== 'object') {
+		throw new AnalysisInputError('invalid_option', 'room must be an object with lengthM, widthM and heightM');
+	}
 	for (const key of DIMENSIONS) {
 		const value = room[key];
 		if (typeof value !== 'number' || !Number.isFinite(value)) {
-			throw new Error(`room ${key} must be a finite number of metres, got ${String(value)}`);
+			throw new AnalysisInputError('invalid_option', `room ${key} must be a finite number of metres, got ${String(value)}`);
 		}
-		if (value <= 0) throw new Error(`room ${key} must be greater than 0 m, got ${value}`);
+		if (value <= 0) throw new AnalysisInputError('invalid_option', `room ${key} must be greater than 0 m, got ${value}`);
 		if (value > MAX_ROOM_DIMENSION_M) {
-			throw new Error(`room ${key} of ${value} m exceeds ${MAX_ROOM_DIMENSION_M} m; check the unit`);
+			throw new AnalysisInputError('invalid_option', `room ${key} of ${value} m exceeds ${MAX_ROOM_DIMENSION_M} m; check the unit`);
 		}
 	}
 }
@@ -48,7 +51,7 @@ export function roomSurfaceArea(room: RoomBox): number {
 }
 
 function checkPositive(name: string, value: number): void {
-	if (!Number.isFinite(value) || value <= 0) throw new Error(`${name} must be a finite number > 0, got ${value}`);
+	if (!Number.isFinite(value) || value <= 0) throw new AnalysisInputError('invalid_option', `${name} must be a finite number > 0, got ${value}`);
 }
 
 function kindOf(n: readonly [number, number, number]): ModeKind {
@@ -63,7 +66,7 @@ export function roomModes(room: RoomBox, maxFreqHz: number, c = 343): RoomMode[]
 	checkPositive('speed of sound c', c);
 	const expected = expectedModeCount(room, maxFreqHz, c);
 	if (expected > MAX_MODE_COUNT) {
-		throw new Error(`about ${Math.round(expected)} modes below ${maxFreqHz} Hz; lower maxFreqHz (limit ${MAX_MODE_COUNT} modes)`);
+		throw new AnalysisInputError('invalid_option', `about ${Math.round(expected)} modes below ${maxFreqHz} Hz; lower maxFreqHz (limit ${MAX_MODE_COUNT} modes)`);
 	}
 	const { lengthM: l, widthM: w, heightM: h } = room;
 	// Index limits from f ≥ c·n/(2·dimension) for any single index.
@@ -99,7 +102,7 @@ export function schroederFrequency(t60S: number, volumeM3: number): number {
 /** Asymptotic number of modes with frequency ≤ freqHz (volume, surface and edge terms). */
 export function expectedModeCount(room: RoomBox, freqHz: number, c = 343): number {
 	validateRoom(room);
-	if (!Number.isFinite(freqHz) || freqHz < 0) throw new Error(`freqHz must be a finite number ≥ 0, got ${freqHz}`);
+	if (!Number.isFinite(freqHz) || freqHz < 0) throw new AnalysisInputError('invalid_option', `freqHz must be a finite number ≥ 0, got ${freqHz}`);
 	checkPositive('speed of sound c', c);
 	const volume = room.lengthM * room.widthM * room.heightM;
 	const surface = roomSurfaceArea(room);

@@ -12,8 +12,11 @@ export function exponentialTailEnergy(powerAtTruncation: number, decayDbPerS: nu
 	return (powerAtTruncation * sampleRate) / k;
 }
 
-/** Backward-integrated decay in dB re its value at index 0, over [0, end); `tailEnergy` is added to every value. */
-export function schroederDecayDb(squared: Float64Array, end: number, tailEnergy = 0): Float64Array {
+/**
+ * Backward-integrated decay over [0, end), normalised to 1 at index 0 (linear energy, not dB:
+ * the fits take logarithms only where they need them); `tailEnergy` is added to every value.
+ */
+export function schroederDecay(squared: Float64Array, end: number, tailEnergy = 0): Float64Array {
 	if (!(end >= 1 && end <= squared.length)) throw new RangeError(`truncation index ${end} outside 1…${squared.length}`);
 	if (!(tailEnergy >= 0)) throw new RangeError(`tail energy must be ≥ 0, got ${tailEnergy}`);
 	const curve = new Float64Array(end);
@@ -24,6 +27,12 @@ export function schroederDecayDb(squared: Float64Array, end: number, tailEnergy 
 	}
 	const total = curve[0];
 	if (!(total > 0)) throw new RangeError('the decay holds no energy');
-	for (let i = 0; i < end; i++) curve[i] = 10 * Math.log10(curve[i] / total);
+	const inverse = 1 / total;
+	for (let i = 0; i < end; i++) curve[i] *= inverse;
 	return curve;
+}
+
+/** The decay in dB re its start, 10·lg(E(t)/E(0)). */
+export function decayLevelDb(normalisedEnergy: number): number {
+	return 10 * Math.log10(normalisedEnergy);
 }

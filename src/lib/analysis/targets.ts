@@ -1,4 +1,5 @@
 // Target reverberation times and the verdict of measured bands against them.
+import { AnalysisInputError } from './errors';
 
 export interface TargetBand {
 	centerHz: number;
@@ -17,12 +18,12 @@ export interface BandVerdict {
 export type Din18041Use = 'music' | 'speech' | 'teaching' | 'inclusive-teaching' | 'sport';
 
 function requirePositive(name: string, value: number): void {
-	if (!Number.isFinite(value) || value <= 0) throw new Error(`${name} must be a finite number > 0, got ${value}`);
+	if (!Number.isFinite(value) || value <= 0) throw new AnalysisInputError('invalid_option', `${name} must be a finite number > 0, got ${value}`);
 }
 
 function checkCenters(centersHz: readonly number[]): void {
 	centersHz.forEach((f, i) => {
-		if (!Number.isFinite(f) || f <= 0) throw new Error(`band centre ${i} must be a frequency > 0 Hz, got ${f}`);
+		if (!Number.isFinite(f) || f <= 0) throw new AnalysisInputError('invalid_option', `band centre ${i} must be a frequency > 0 Hz, got ${f}`);
 	});
 }
 
@@ -66,9 +67,9 @@ const DIN18041_COEFFICIENTS: Record<Din18041Use, { a: number; b: number }> = {
 export function din18041Target(volumeM3: number, use: Din18041Use): number {
 	requirePositive('volumeM3', volumeM3);
 	const coefficients = DIN18041_COEFFICIENTS[use];
-	if (!coefficients) throw new Error(`unknown DIN 18041 use "${String(use)}"`);
+	if (!coefficients) throw new AnalysisInputError('invalid_option', `unknown DIN 18041 use "${String(use)}"`);
 	const targetS = coefficients.a * Math.log10(volumeM3) + coefficients.b;
-	if (targetS <= 0) throw new Error(`a volume of ${volumeM3} m³ is too small for DIN 18041 use "${use}"`);
+	if (targetS <= 0) throw new AnalysisInputError('invalid_option', `a volume of ${volumeM3} m³ is too small for DIN 18041 use "${use}"`);
 	return targetS;
 }
 

@@ -1,5 +1,6 @@
 // Cumulative spectral decay: how the spectrum of the remaining impulse response falls with
 // time, one slice per start time, for a waterfall chart of the low-frequency decay.
+import { AnalysisInputError } from './errors';
 import {
 	applyHalfHannFadeIn,
 	applyHalfHannFadeOut,
@@ -35,7 +36,7 @@ export const SPECTRAL_DECAY_FLOOR_DB = -80;
 const SLICE_SMOOTHING = 6;
 
 function requirePositive(name: string, value: number): void {
-	if (!Number.isFinite(value) || value <= 0) throw new Error(`${name} must be a finite number > 0, got ${value}`);
+	if (!Number.isFinite(value) || value <= 0) throw new AnalysisInputError('invalid_option', `${name} must be a finite number > 0, got ${value}`);
 }
 
 /**
@@ -51,10 +52,10 @@ export function cumulativeSpectralDecay(
 	startIndex: number,
 	options: SpectralDecayOptions = {}
 ): SpectralDecay {
-	if (ir.length === 0) throw new Error('impulse response is empty');
+	if (ir.length === 0) throw new AnalysisInputError('no_samples', 'impulse response is empty');
 	requirePositive('sampleRate', sampleRate);
 	if (!Number.isInteger(startIndex) || startIndex < 0 || startIndex >= ir.length) {
-		throw new Error(`startIndex must be an integer in 0…${ir.length - 1}, got ${startIndex}`);
+		throw new AnalysisInputError('invalid_option', `startIndex must be an integer in 0…${ir.length - 1}, got ${startIndex}`);
 	}
 	const durationMs = options.durationMs ?? 300;
 	const slices = options.slices ?? 31;
@@ -66,16 +67,16 @@ export function cumulativeSpectralDecay(
 	requirePositive('durationMs', durationMs);
 	requirePositive('fadeInMs', fadeInMs);
 	if (!Number.isInteger(slices) || slices < 2 || slices > 500) {
-		throw new Error(`slices must be an integer in 2…500, got ${slices}`);
+		throw new AnalysisInputError('invalid_option', `slices must be an integer in 2…500, got ${slices}`);
 	}
 	if (!(Number.isFinite(fMinHz) && fMinHz > 0 && fMaxHz > fMinHz)) {
-		throw new Error(`need 0 < fMinHz < fMaxHz ≤ Nyquist, got ${fMinHz} and ${options.fMaxHz ?? 500}`);
+		throw new AnalysisInputError('invalid_option', `need 0 < fMinHz < fMaxHz ≤ Nyquist, got ${fMinHz} and ${options.fMaxHz ?? 500}`);
 	}
 	if (!(Number.isFinite(analysisEndMs) && analysisEndMs > durationMs + fadeInMs)) {
-		throw new Error(`analysisEndMs must exceed durationMs + fadeInMs, got ${analysisEndMs}`);
+		throw new AnalysisInputError('invalid_option', `analysisEndMs must exceed durationMs + fadeInMs, got ${analysisEndMs}`);
 	}
 	for (let i = 0; i < ir.length; i++) {
-		if (!Number.isFinite(ir[i])) throw new Error(`sample ${i} is not a finite number (${ir[i]})`);
+		if (!Number.isFinite(ir[i])) throw new AnalysisInputError('non_finite_samples', `sample ${i} is not a finite number (${ir[i]})`);
 	}
 	const samples = (ms: number) => Math.round((ms * sampleRate) / 1000);
 	const end = Math.min(ir.length, startIndex + samples(analysisEndMs));
@@ -83,7 +84,11 @@ export function cumulativeSpectralDecay(
 	const lastSliceStart = startIndex + samples(durationMs);
 	const fadeIn = Math.max(1, samples(fadeInMs));
 	if (lastSliceStart + fadeIn >= end) {
-		throw new Error(`the impulse response ends ${((1000 * windowLength) / sampleRate).toFixed(1)} ms after startIndex; too short for durationMs ${durationMs}`);
+		const availableMs = ((1000 * windowLength) / sampleRate).toFixed(1);
+		throw new AnalysisInputError(
+			'too_short',
+			`the impulse response ends ${availableMs} ms after startIndex; too short for durationMs ${durationMs}`
+		);
 	}
 
 	// Common fixed end, tapered once; every slice is a left-truncated view of this window.

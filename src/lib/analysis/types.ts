@@ -15,7 +15,11 @@ export interface AnalysisOptions {
 	room?: RoomBox & { source?: Point3; mic?: Point3 };
 	/** Lowest reflection level reported, dB re the direct sound (default −20). */
 	reflectionThresholdDb?: number;
+	/** Called with the time each stage took (for benchmarks); not part of the result. */
+	onStage?: (stage: AnalysisStage, milliseconds: number) => void;
 }
+
+export type AnalysisStage = 'decode' | 'deconvolution' | 'filtering' | 'decay' | 'curves' | 'reflections';
 
 export interface RecordingAnalysisOptions extends AnalysisOptions {
 	/** 0-based channel of the file to analyse. */

@@ -87,7 +87,10 @@ function checkBand(band: ProblemBand): void {
 	}
 }
 
-const covers = (range: { loHz: number; hiHz: number }, band: ProblemBand) => range.loHz <= band.fLoHz && range.hiHz >= band.fHiHz;
+/** Coverage allows 2 %: a cavity rounded to whole mm must not turn a one-octave match into a miss (common practice, no source). */
+const COVERAGE_TOLERANCE = 1.02;
+const covers = (range: { loHz: number; hiHz: number }, band: ProblemBand) =>
+	range.loHz <= band.fLoHz * COVERAGE_TOLERANCE && range.hiHz * COVERAGE_TOLERANCE >= band.fHiHz;
 
 /** Membrane trap tuned to the band's geometric centre, on the thinnest plywood giving a practical cavity. */
 export function proposeMembraneTrap(band: ProblemBand, air: AirProperties = DEFAULT_AIR): Proposal {
@@ -108,7 +111,9 @@ export function proposeMembraneTrap(band: ProblemBand, air: AirProperties = DEFA
 	warnings.push(...membraneModelWarnings(trap, air));
 	const range = membraneActionRangeHz(f0);
 	const coversBand = covers(range, band);
-	if (!coversBand) warnings.push(`the band is wider than one trap's octave of action; add a second trap tuned to the uncovered part`);
+	if (!coversBand) {
+		warnings.push(`the trap acts on ${hz(range.loHz)}–${hz(range.hiHz)}, not the whole ${hz(band.fLoHz)}–${hz(band.fHiHz)}; add a second trap tuned to the uncovered part`);
+	}
 	return {
 		kind: 'membrane-trap',
 		title: `Panel trap, ${chosen.t} mm plywood over a ${chosen.depthMm} mm fibre-filled cavity`,

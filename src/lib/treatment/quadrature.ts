@@ -28,10 +28,9 @@ export function gaussLegendreUnit(n: number): QuadratureRule {
 				p0 = p1;
 				p1 = p2;
 			}
-			const pn = n === 1 ? x : p1;
-			const pnm1 = n === 1 ? 1 : p0;
-			dp = (n * (x * pn - pnm1)) / (x * x - 1);
-			const dx = pn / dp;
+			// p1 = P_n(x), p0 = P_{n−1}(x); P_n' = n·(x·P_n − P_{n−1})/(x² − 1)
+			dp = (n * (x * p1 - p0)) / (x * x - 1);
+			const dx = p1 / dp;
 			x -= dx;
 			if (Math.abs(dx) < 1e-15) break;
 		}

@@ -5,11 +5,11 @@ import {
 	isTimeMetric,
 	outlierPositions,
 	powerAverageCurves,
-	type BandMetrics
+	type MetricRow
 } from '../../../src/lib/analysis/compare';
 
 // Three positions, octave bands 125…500 Hz; nulls where a metric could not be evaluated.
-const positions: BandMetrics[][] = [
+const positions: MetricRow[][] = [
 	[
 		{ centerHz: 125, T30: 0.6, C80: 2 },
 		{ centerHz: 250, T30: 0.5, C80: 4 },
@@ -49,6 +49,28 @@ describe('averageBands', () => {
 		expect(Math.abs((value.mean as number) - mean)).toBeLessThan(1e-12);
 		if (std === null) expect(value.std).toBeNull();
 		else expect(Math.abs((value.std as number) - std)).toBeLessThan(1e-12);
+	});
+
+	it('reads engine-shaped rows, counting only finite numbers', () => {
+		// Rows shaped as the engine writes them (an interface, no index signature): other fields
+		// (objects, booleans) are not metrics.
+		interface EngineBand {
+			centerHz: number;
+			exactHz: number;
+			t30S: number | null;
+			c80Db: number | null;
+			r: { t30: number | null };
+			biased: boolean;
+		}
+		const engineRows: EngineBand[][] = [
+			[{ centerHz: 1000, exactHz: 1000, t30S: 0.5, c80Db: 3, r: { t30: -0.99 }, biased: false }],
+			[{ centerHz: 1000, exactHz: 1000, t30S: 0.7, c80Db: null, r: { t30: -0.98 }, biased: true }]
+		];
+		const [band] = averageBands(engineRows, ['t30S', 'c80Db', 'biased']);
+		expect(band.values.t30S.count).toBe(2);
+		expect(Math.abs((band.values.t30S.mean as number) - 0.6)).toBeLessThan(1e-12);
+		expect(band.values.c80Db).toEqual({ mean: 3, count: 1, std: null });
+		expect(band.values.biased.count).toBe(0);
 	});
 
 	it('reports null and count 0 for a metric nobody measured', () => {
@@ -133,7 +155,11 @@ describe('bandDifferences', () => {
 		{ metric: 'T20', time: true },
 		{ metric: 'EDT', time: true },
 		{ metric: 'Ts', time: true },
+		{ metric: 't30S', time: true },
+		{ metric: 'edtS', time: true },
+		{ metric: 'tsMs', time: true },
 		{ metric: 'C80', time: false },
+		{ metric: 'c80Db', time: false },
 		{ metric: 'D50', time: false }
 	])('$metric is a time metric: $time', ({ metric, time }) => {
 		expect(isTimeMetric(metric)).toBe(time);
@@ -142,11 +168,12 @@ describe('bandDifferences', () => {
 
 describe('outlierPositions', () => {
 	// Threshold 20 % of the mean of the other positions (common practice, no source).
-	const withFourth = (t30: number): BandMetrics[][] => [
-		[{ centerHz: 500, T30: 0.5 }],
-		[{ centerHz: 500, T30: 0.5 }],
-		[{ centerHz: 500, T30: 0.5 }],
-		[{ centerHz: 500, T30: t30 }]
+	// Default metric t30S, the engine's name for T30.
+	const withFourth = (t30: number): MetricRow[][] => [
+		[{ centerHz: 500, t30S: 0.5 }],
+		[{ centerHz: 500, t30S: 0.5 }],
+		[{ centerHz: 500, t30S: 0.5 }],
+		[{ centerHz: 500, t30S: t30 }]
 	];
 
 	it.each([
@@ -165,9 +192,9 @@ describe('outlierPositions', () => {
 
 	it('follows the fraction and metric options and skips nulls', () => {
 		expect(outlierPositions(withFourth(0.575), { fraction: 0.1 }).map((f) => f.positionIndex)).toEqual([3]);
-		const c80: BandMetrics[][] = [[{ centerHz: 1000, C80: 4, T30: null }], [{ centerHz: 1000, C80: 8, T30: 0.4 }]];
+		const c80: MetricRow[][] = [[{ centerHz: 1000, c80Db: 4, t30S: null }], [{ centerHz: 1000, c80Db: 8, t30S: 0.4 }]];
 		expect(outlierPositions(c80)).toEqual([]); // only one T30 value
-		expect(outlierPositions(c80, { metric: 'C80' }).map((f) => f.positionIndex)).toEqual([0, 1]);
+		expect(outlierPositions(c80, { metric: 'c80Db' }).map((f) => f.positionIndex)).toEqual([0, 1]);
 		expect(() => outlierPositions(c80, { fraction: 0 })).toThrow(/fraction/);
 	});
 });

@@ -76,6 +76,15 @@ describe('detectReflections on a synthetic impulse response', () => {
 		expect(found.map((r) => Math.round((r.delayMs * SAMPLE_RATE) / 1000))).toEqual([150, 437, 1210]);
 	});
 
+	it('finds a late direct peak only within directSearchMs of the onset index', () => {
+		// Onset given 1.5 ms (72 samples) before the peak: with the default 1 ms search the direct
+		// peak is missed and the true direct sound shows up as a "reflection" above 0 dB; 2 ms finds it.
+		const early = detectReflections(ir, SAMPLE_RATE, direct - 72);
+		expect(early[0].levelDb).toBeGreaterThan(-0.5);
+		const found = detectReflections(ir, SAMPLE_RATE, direct - 72, { directSearchMs: 2 });
+		expect(found.map((r) => Math.round((r.delayMs * SAMPLE_RATE) / 1000))).toEqual([150, 437, 1210]);
+	});
+
 	it('ignores peaks beyond windowMs', () => {
 		const found = detectReflections(ir, SAMPLE_RATE, direct, { windowMs: 20, thresholdDb: -30 });
 		expect(found.map((r) => Math.round((r.delayMs * SAMPLE_RATE) / 1000))).toEqual([150, 437]);

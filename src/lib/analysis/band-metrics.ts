@@ -1,0 +1,113 @@
+/**
+ * Everything measured on one band's squared impulse response (or the broadband one): noise floor
+ * and truncation (Lundeby), Schroeder decay with the tail compensated, EDT/T20/T30 with their
+ * linearity, energy parameters — and, for every value not trusted, null plus the reason.
+ */
+import { curvaturePercent, EVALUATION_RANGES, fitDecayRange, type DecayFit, type DecayMetric } from './decay-fit';
+import { energyParameters, type EnergyParameters } from './energy';
+import { estimateNoiseFloor, type NoiseFloorEstimate } from './lundeby';
+import {
+	curvatureProblem,
+	CURVATURE_LIMIT_PERCENT,
+	energyProblem,
+	MIN_PEAK_TO_NOISE_FOR_ENERGY_DB,
+	FILTER_BIAS_MIN_BT,
+	filterBiasProblem,
+	isFilterBiased,
+	peakToNoiseProblem,
+	rangeNotReachedProblem
+} from './quality';
+import { exponentialTailEnergy, schroederDecay } from './schroeder';
+
+export const DECAY_METRICS: readonly DecayMetric[] = ['edt', 't20', 't30'];
+
+export interface BandProblem {
+	code: 'insufficient_dynamic_range' | 'decay_range_not_reached' | 'no_decay_found' | 'filter_bias' | 'curvature';
+	message: string;
+}
+
+export interface DecayAnalysis {
+	noise: NoiseFloorEstimate;
+	peakToNoiseDb: number;
+	/** Schroeder decay from the start point to the truncation point, linear energy re its start. */
+	decay: Float64Array;
+	/** Fits of the values that are trusted; the others are null. */
+	fits: Record<DecayMetric, DecayFit | null>;
+	energy: EnergyParameters | null;
+	curvaturePct: number | null;
+	biased: boolean;
+	problems: BandProblem[];
+}
+
+export interface DecayAnalysisOptions {
+	/** Band filter bandwidth for the B·T criterion; omitted for the broadband response. */
+	bandwidthHz?: number;
+	biasCriterion?: number;
+}
+
+/** Squares a signal from `start` on, into a new array. */
+export function squaredFrom(x: Float64Array, start: number): Float64Array {
+	const out = new Float64Array(x.length - start);
+	for (let i = start; i < x.length; i++) out[i - start] = x[i] * x[i];
+	return out;
+}
+
+/** Squares a signal in place (the band signals are scratch buffers). */
+export function squareInPlace(x: Float64Array): Float64Array {
+	for (let i = 0; i < x.length; i++) x[i] *= x[i];
+	return x;
+}
+
+export function analyseDecay(squared: Float64Array, sampleRate: number, options: DecayAnalysisOptions = {}): DecayAnalysis {
+	const noise = estimateNoiseFloor(squared, sampleRate);
+	const peakToNoiseDb = -noise.noiseDbRePeak;
+	const problems: BandProblem[] = [];
+	const slope = noise.lateSlopeDbPerS;
+	const tailEnergy = slope === null ? 0 : exponentialTailEnergy(noise.powerAtCrosspoint, slope, sampleRate);
+	const decay = schroederDecay(squared, noise.crosspointIndex, tailEnergy);
+
+	const fits = { edt: null, t20: null, t30: null } as Record<DecayMetric, DecayFit | null>;
+	if (slope === null) {
+		problems.push({ code: 'no_decay_found', message: 'no decay above the background was found: check the capture' });
+	}
+	for (const metric of DECAY_METRICS) {
+		if (slope === null) continue;
+		const dynamicRange = peakToNoiseProblem(metric, peakToNoiseDb);
+		if (dynamicRange) {
+			problems.push({ code: 'insufficient_dynamic_range', message: dynamicRange });
+			continue;
+		}
+		const fit = fitDecayRange(decay, sampleRate, EVALUATION_RANGES[metric]);
+		if (!fit) {
+			problems.push({ code: 'decay_range_not_reached', message: rangeNotReachedProblem(metric, EVALUATION_RANGES[metric].bottomDb) });
+			continue;
+		}
+		fits[metric] = fit;
+	}
+
+	const energyTrusted = peakToNoiseDb >= MIN_PEAK_TO_NOISE_FOR_ENERGY_DB;
+	if (slope !== null && !energyTrusted) problems.push({ code: 'insufficient_dynamic_range', message: energyProblem(peakToNoiseDb) });
+	const energy =
+		slope !== null && energyTrusted
+			? energyParameters(squared, sampleRate, noise.crosspointIndex, {
+					powerAtTruncation: noise.powerAtCrosspoint,
+					decayRatePerS: (-slope * Math.LN10) / 10
+				})
+			: null;
+
+	const t20 = fits.t20?.reverberationTimeS ?? null;
+	const t30 = fits.t30?.reverberationTimeS ?? null;
+	const curvaturePct = t20 !== null && t30 !== null ? curvaturePercent(t20, t30) : null;
+	if (curvaturePct !== null && Math.abs(curvaturePct) > CURVATURE_LIMIT_PERCENT) {
+		problems.push({ code: 'curvature', message: curvatureProblem(curvaturePct) });
+	}
+
+	let biased = false;
+	const longestTrusted = t30 ?? t20 ?? fits.edt?.reverberationTimeS ?? null;
+	if (options.bandwidthHz !== undefined && longestTrusted !== null) {
+		const criterion = options.biasCriterion ?? FILTER_BIAS_MIN_BT.zeroPhase;
+		biased = isFilterBiased(options.bandwidthHz, longestTrusted, criterion);
+		if (biased) problems.push({ code: 'filter_bias', message: filterBiasProblem(options.bandwidthHz, longestTrusted, criterion) });
+	}
+	return { noise, peakToNoiseDb, decay, fits, energy, curvaturePct, biased, problems };
+}

@@ -1,0 +1,38 @@
+// Headless Chromium from Debian, driven by playwright-core (no browser download).
+import { chromium, type Browser, type Locator, type Page } from 'playwright-core';
+import { BASE_URL, DEMO_PASSWORD } from '../helpers/env';
+
+export async function launch(): Promise<Browser> {
+	return chromium.launch({
+		executablePath: '/usr/bin/chromium',
+		headless: true,
+		args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync']
+	});
+}
+
+export async function newPage(browser: Browser, viewport = { width: 1280, height: 900 }): Promise<Page> {
+	const context = await browser.newContext({ baseURL: BASE_URL, viewport });
+	const page = await context.newPage();
+	// Fail fast with the locator in the message rather than at the test's own time-out.
+	page.setDefaultTimeout(15_000);
+	return page;
+}
+
+/** Sign in through the form, as a person would, and wait for the projects page. */
+export async function signIn(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
+	await page.goto('/signin');
+	await page.getByLabel('E-mail').fill(email);
+	await page.getByLabel('Password').fill(password);
+	await page.getByRole('button', { name: 'Sign in' }).click();
+	await page.waitForURL('**/projects');
+}
+
+/** Whether a locator becomes visible within a few seconds (pages navigate and hydrate). */
+export async function seen(locator: Locator, timeout = 5_000): Promise<boolean> {
+	try {
+		await locator.first().waitFor({ state: 'visible', timeout });
+		return true;
+	} catch {
+		return false;
+	}
+}
