@@ -52,7 +52,7 @@ interface WaveFileInstance {
 	fmt: WaveFileFmt;
 	data: { samples: Uint8Array };
 	fromBuffer(bytes: Uint8Array, samples?: boolean): void;
-	fromScratch(channels: number, sampleRate: number, bitDepth: string, samples: ArrayLike<number>): void;
+	fromScratch(channels: number, sampleRate: number, bitDepth: string, samples: ArrayLike<number> | ArrayLike<number>[]): void;
 	toBuffer(): Uint8Array;
 }
 
@@ -227,23 +227,25 @@ export function decodeWav(bytes: Uint8Array, options: DecodeWavOptions = {}): De
 	return { samples, sampleRate: fmt.sampleRate, channels: fmt.numChannels, bitDepth: bits, format, durationS, warnings, clipping };
 }
 
-/** Writes a mono WAV (PCM 16/24-bit scaled by 2^(bits−1) and clamped, or 32-bit float). */
-export function encodeWav(samples: Float64Array, sampleRate: number, bitDepth: EncodedBitDepth): Uint8Array {
+/** Writes a WAV file of one or more equally long channels (PCM 16/24-bit scaled by 2^(bits−1) and clamped, or 32-bit float). */
+export function encodeWav(channels: Float64Array | readonly Float64Array[], sampleRate: number, bitDepth: EncodedBitDepth): Uint8Array {
+	const list = channels instanceof Float64Array ? [channels] : channels;
 	if (!Number.isInteger(sampleRate) || sampleRate <= 0) throw new RangeError(`sample rate must be a positive integer, got ${sampleRate}`);
-	if (samples.length === 0) throw new RangeError('cannot write a WAV file with no samples');
-	let data: ArrayLike<number>;
-	if (bitDepth === '32f') {
-		data = samples;
-	} else {
-		const scale = 2 ** (bitDepth - 1);
-		const ints = new Int32Array(samples.length);
-		for (let i = 0; i < samples.length; i++) {
-			if (!Number.isFinite(samples[i])) throw new RangeError(`sample ${i} is not finite`);
-			ints[i] = Math.max(-scale, Math.min(scale - 1, Math.round(samples[i] * scale)));
+	if (list.length < 1 || list.length > MAX_CHANNELS) throw new RangeError(`need 1 to ${MAX_CHANNELS} channels, got ${list.length}`);
+	const frames = list[0].length;
+	if (frames === 0) throw new RangeError('cannot write a WAV file with no samples');
+	if (list.some((channel) => channel.length !== frames)) throw new RangeError('all channels must have the same length');
+	const data = list.map((samples, c): ArrayLike<number> => {
+		for (let i = 0; i < frames; i++) {
+			if (!Number.isFinite(samples[i])) throw new RangeError(`sample ${i} of channel ${c} is not finite`);
 		}
-		data = ints;
-	}
+		if (bitDepth === '32f') return samples;
+		const scale = 2 ** (bitDepth - 1);
+		const ints = new Int32Array(frames);
+		for (let i = 0; i < frames; i++) ints[i] = Math.max(-scale, Math.min(scale - 1, Math.round(samples[i] * scale)));
+		return ints;
+	});
 	const wav = new WaveFile();
-	wav.fromScratch(1, sampleRate, String(bitDepth), data);
+	wav.fromScratch(list.length, sampleRate, String(bitDepth), list.length === 1 ? data[0] : data);
 	return wav.toBuffer();
 }
