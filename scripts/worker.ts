@@ -1,39 +1,48 @@
-// The background worker: sends the e-mail outbox (and, as they are added, runs queued jobs).
-// Stops gracefully on SIGTERM/SIGINT: it finishes what it holds, then exits.
+// The background worker: runs queued jobs (capture analysis) and sends the e-mail outbox.
+// Several workers, on one machine or many, share the job table. On SIGTERM/SIGINT it finishes
+// the job it holds (analysis takes seconds), then exits; a worker that is killed leaves its
+// job to be claimed again when the lease runs out.
 import { hostname } from 'node:os';
 import { config } from '../src/lib/server/config';
 import { closeDb, db } from '../src/lib/server/db';
 import { createTransport, deliverDueMail } from '../src/lib/server/mail';
+import { createStorage } from '../src/lib/server/storage';
+import { runNextJob } from '../src/lib/server/jobs/runner';
 
 const POLL_MS = Number(process.env.WORKER_POLL_MS ?? 500);
-const workerId = `${hostname()}:${process.pid}`;
+const LEASE_MS = Number(process.env.JOB_LEASE_MS ?? 60_000);
+const owner = `${hostname()}:${process.pid}`;
+const log = (m: string) => console.log(`[worker ${owner}] ${m}`);
 
 let stopping = false;
-const wake: { fn: (() => void) | null } = { fn: null };
+let wake: (() => void) | null = null;
 for (const sig of ['SIGTERM', 'SIGINT'] as const) {
 	process.on(sig, () => {
 		stopping = true;
-		wake.fn?.();
+		wake?.();
 	});
 }
 
 async function main() {
 	const k = db();
+	const s = createStorage();
 	const transport = createTransport();
 	const from = config().MAIL_FROM;
-	console.log(`[worker ${workerId}] started`);
+	log('started');
 	while (!stopping) {
-		let did = 0;
+		let busy = false;
 		try {
-			did += await deliverDueMail(k, transport, from);
+			const outcome = await runNextJob(k, s, { owner, leaseMs: LEASE_MS, log });
+			if (outcome) busy = true;
+			if ((await deliverDueMail(k, transport, from)) > 0) busy = true;
 		} catch (e) {
-			console.error(`[worker ${workerId}]`, e);
+			log(`error: ${e instanceof Error ? e.message : e}`);
 		}
-		if (did === 0 && !stopping) await new Promise<void>((r) => ((wake.fn = r), setTimeout(r, POLL_MS)));
+		if (!busy && !stopping) await new Promise<void>((r) => ((wake = r), setTimeout(r, POLL_MS)));
 	}
 	transport.close();
 	await closeDb();
-	console.log(`[worker ${workerId}] stopped`);
+	log('stopped');
 }
 
 main().catch((e) => {

@@ -293,6 +293,12 @@ export function analyseRecording(bytes: Uint8Array, options: RecordingAnalysisOp
 	let impulseResponse = decoded.samples;
 	let deconvolution: DeconvolutionSummary | null = null;
 	const reference = options.reference;
+	if (reference && options.referenceSampleRate !== undefined && options.referenceSampleRate !== decoded.sampleRate) {
+		throw new AnalysisInputError(
+			'sample_rate_mismatch',
+			`the reference sweep is at ${options.referenceSampleRate} Hz but the recording at ${decoded.sampleRate} Hz`
+		);
+	}
 	if (reference) {
 		const result = clock.time('deconvolution', () => deconvolveSweep(decoded.samples, reference, decoded.sampleRate, options.sweep ?? {}));
 		impulseResponse = result.impulseResponse;

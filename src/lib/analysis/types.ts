@@ -27,6 +27,8 @@ export interface RecordingAnalysisOptions extends AnalysisOptions {
 	maxDurationS?: number;
 	/** The sweep that was played: the recording is deconvolved with it first. */
 	reference?: Float64Array;
+	/** Sample rate of the reference when it was read from a file: it must match the recording's. */
+	referenceSampleRate?: number;
 	/** The sweep's parameters when known (otherwise estimated from the reference). */
 	sweep?: Pick<DeconvolutionOptions, 'f1Hz' | 'f2Hz' | 'durationS'>;
 }

@@ -28,3 +28,18 @@ export function passwordResetMail(p: { link: string }) {
 		].join('\n')
 	};
 }
+
+export function sessionAnalysedMail(p: { roomName: string; condition: string; analysed: number; failed: number; link: string }) {
+	const total = p.analysed + p.failed;
+	return {
+		subject: `${p.roomName}, ${p.condition}: ${total} capture${total === 1 ? '' : 's'} analysed`,
+		text: [
+			`All captures of the visit "${p.condition}" in ${p.roomName} have been through the analysis.`,
+			'',
+			`Analysed: ${p.analysed}`,
+			`Failed:   ${p.failed}${p.failed ? ' — open the visit to see why, and measure again while you can.' : ''}`,
+			'',
+			p.link
+		].join('\n')
+	};
+}

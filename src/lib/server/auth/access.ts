@@ -26,7 +26,8 @@ export type Target =
 	| { positionId: number }
 	| { captureId: number }
 	| { comparisonId: number }
-	| { problemBandId: number };
+	| { problemBandId: number }
+	| { sweepId: number };
 
 export interface Scope {
 	organizationId: number;
@@ -89,6 +90,9 @@ async function ownerOf(k: Knex, target: Target): Promise<Owner | null> {
 				.join('projects as p', 'p.id', 'r.project_id')
 				.where('pb.id', target.problemBandId)
 		);
+	} else if ('sweepId' in target) {
+		const sweep = await k('sweep_definitions').where({ id: target.sweepId }).first('organization_id');
+		return sweep ? { organizationId: sweep.organization_id, projectId: null } : null;
 	}
 	return row ?? null;
 }

@@ -1,0 +1,59 @@
+// The JSON shape of a capture for the browser: its state, and — once analysed — the headline
+// numbers and quality warnings. Object keys stay on the server.
+import type { Knex } from 'knex';
+import { analysisSummaries, listCaptures, type CaptureRow } from '../queries/captures';
+
+export interface CaptureView {
+	id: number;
+	positionId: number;
+	positionLabel: string;
+	kind: 'impulse' | 'sweep';
+	filename: string;
+	sizeBytes: number | null;
+	sampleRate: number | null;
+	channels: number | null;
+	channel: number;
+	durationS: number | null;
+	status: CaptureRow['status'];
+	error: string | null;
+	engineVersion: string | null;
+	warnings: { code: string; band: number | null; message: string }[];
+	headline: { t30S: number | null; t20S: number | null; edtS: number | null; c80Db: number | null; peakToNoiseDb: number | null } | null;
+	updatedAt: string;
+}
+
+export function toView(c: CaptureRow, summary?: { engineVersion: string; warnings: unknown[]; metrics: Record<string, unknown> }): CaptureView {
+	const broadband = summary?.metrics.broadband as Record<string, number | null> | undefined;
+	return {
+		id: c.id,
+		positionId: c.positionId,
+		positionLabel: c.positionLabel,
+		kind: c.kind,
+		filename: c.filename,
+		sizeBytes: c.sizeBytes === null ? null : Number(c.sizeBytes),
+		sampleRate: c.sampleRate,
+		channels: c.channels,
+		channel: c.channel,
+		durationS: c.durationS,
+		status: c.status,
+		error: c.error,
+		engineVersion: summary?.engineVersion ?? null,
+		warnings: (summary?.warnings ?? []) as CaptureView['warnings'],
+		headline: broadband
+			? {
+					t30S: broadband.t30S ?? null,
+					t20S: broadband.t20S ?? null,
+					edtS: broadband.edtS ?? null,
+					c80Db: broadband.c80Db ?? null,
+					peakToNoiseDb: (summary?.metrics.peakToNoiseDb as number | null) ?? null
+				}
+			: null,
+		updatedAt: new Date(c.updatedAt).toISOString()
+	};
+}
+
+export async function sessionCaptureViews(k: Knex, sessionId: number): Promise<CaptureView[]> {
+	const rows = await listCaptures(k, sessionId);
+	const summaries = await analysisSummaries(k, rows.map((r) => r.id));
+	return rows.map((r) => toView(r, summaries.get(r.id)));
+}

@@ -1,0 +1,125 @@
+// The job table as a queue. Workers claim with SELECT … FOR UPDATE SKIP LOCKED, so several of
+// them — on one machine or many — share it without taking the same job. A claim is a lease:
+// a worker that dies leaves its job to be claimed again once the lease runs out.
+import type { Knex } from 'knex';
+
+export type JobType = 'analyse-capture';
+
+export interface Job<P = unknown> {
+	id: number;
+	type: JobType;
+	payload: P;
+	attempts: number;
+	maxAttempts: number;
+	leaseOwner: string;
+}
+
+export const DEFAULT_LEASE_MS = 60_000;
+
+/** Retry back-off: 2 s, 4 s, 8 s … capped at 5 minutes. */
+export function retryDelayMs(attempts: number): number {
+	return Math.min(300_000, 2_000 * 2 ** Math.max(0, attempts - 1));
+}
+
+export async function enqueue(
+	k: Knex,
+	type: JobType,
+	payload: Record<string, unknown>,
+	options: { maxAttempts?: number; runAfter?: Date } = {}
+): Promise<number> {
+	const [id] = await k('jobs').insert({
+		type,
+		payload: JSON.stringify(payload),
+		max_attempts: options.maxAttempts ?? 5,
+		run_after: options.runAfter ?? k.raw('CURRENT_TIMESTAMP(3)')
+	});
+	return id;
+}
+
+const parse = (p: unknown) => (typeof p === 'string' ? JSON.parse(p) : p);
+
+/**
+ * Claim one due job: queued and due, or running with an expired lease (its worker died).
+ * Returns null when there is nothing to do.
+ */
+export async function claim(k: Knex, owner: string, leaseMs = DEFAULT_LEASE_MS): Promise<Job | null> {
+	return k.transaction(async (trx) => {
+		const row = await trx('jobs')
+			.where((q) =>
+				q
+					.where((d) => d.where('status', 'queued').where('run_after', '<=', trx.raw('CURRENT_TIMESTAMP(3)')))
+					.orWhere((e) => e.where('status', 'running').where('lease_expires_at', '<', trx.raw('CURRENT_TIMESTAMP(3)')))
+			)
+			.orderBy('run_after')
+			.orderBy('id')
+			.forUpdate()
+			.skipLocked()
+			.first();
+		if (!row) return null;
+		await trx('jobs')
+			.where({ id: row.id })
+			.update({
+				status: 'running',
+				attempts: row.attempts + 1,
+				lease_owner: owner,
+				lease_expires_at: trx.raw('CURRENT_TIMESTAMP(3) + INTERVAL ? MICROSECOND', [leaseMs * 1000])
+			});
+		return {
+			id: row.id,
+			type: row.type,
+			payload: parse(row.payload),
+			attempts: row.attempts + 1,
+			maxAttempts: row.max_attempts,
+			leaseOwner: owner
+		};
+	});
+}
+
+/** Extend the lease while working; false if the job is no longer ours. */
+export async function renewLease(k: Knex, job: Job, leaseMs = DEFAULT_LEASE_MS): Promise<boolean> {
+	const n = await k('jobs')
+		.where({ id: job.id, status: 'running', lease_owner: job.leaseOwner })
+		.update({ lease_expires_at: k.raw('CURRENT_TIMESTAMP(3) + INTERVAL ? MICROSECOND', [leaseMs * 1000]) });
+	return n === 1;
+}
+
+export class LeaseLostError extends Error {
+	constructor(jobId: number) {
+		super(`Job ${jobId} is no longer held by this worker`);
+		this.name = 'LeaseLostError';
+	}
+}
+
+/**
+ * Mark the job done inside the caller's transaction — the same one that writes its result —
+ * and only if this worker still holds it. Throws LeaseLostError otherwise, which rolls the
+ * result back: a job's result is written exactly once.
+ */
+export async function completeInTransaction(trx: Knex.Transaction, job: Job): Promise<void> {
+	const held = await trx('jobs').where({ id: job.id, status: 'running', lease_owner: job.leaseOwner }).forUpdate().first('id');
+	if (!held) throw new LeaseLostError(job.id);
+	await trx('jobs').where({ id: job.id }).update({ status: 'done', finished_at: trx.raw('CURRENT_TIMESTAMP(3)'), lease_owner: null, lease_expires_at: null, last_error: null });
+}
+
+/** A failed attempt: retry later with back-off, or mark the job dead at the limit. */
+export async function failAttempt(k: Knex, job: Job, reason: string, options: { permanent?: boolean } = {}): Promise<'retry' | 'dead'> {
+	const dead = options.permanent || job.attempts >= job.maxAttempts;
+	await k('jobs')
+		.where({ id: job.id, lease_owner: job.leaseOwner })
+		.update({
+			status: dead ? 'dead' : 'queued',
+			last_error: reason.slice(0, 4000),
+			lease_owner: null,
+			lease_expires_at: null,
+			finished_at: dead ? k.raw('CURRENT_TIMESTAMP(3)') : null,
+			run_after: dead ? k.raw('CURRENT_TIMESTAMP(3)') : new Date(Date.now() + retryDelayMs(job.attempts))
+		});
+	return dead ? 'dead' : 'retry';
+}
+
+/** Hand a job back untouched (graceful stop before it could finish). */
+export async function release(k: Knex, job: Job): Promise<void> {
+	await k('jobs')
+		.where({ id: job.id, lease_owner: job.leaseOwner, status: 'running' })
+		.update({ status: 'queued', attempts: Math.max(0, job.attempts - 1), lease_owner: null, lease_expires_at: null, run_after: k.raw('CURRENT_TIMESTAMP(3)') });
+}

@@ -1,0 +1,112 @@
+// Object storage through the AWS SDK only, so any S3-compatible service is a configuration change.
+import {
+	DeleteObjectCommand,
+	GetObjectCommand,
+	HeadObjectCommand,
+	PutObjectCommand,
+	S3Client,
+	type PutObjectCommandInput
+} from '@aws-sdk/client-s3';
+import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
+import { randomUUID } from 'node:crypto';
+import { config, type AppConfig } from './config';
+
+export class StorageUnavailableError extends Error {
+	constructor(cause: unknown) {
+		super('Object storage is not reachable right now. Try again in a moment.');
+		this.name = 'StorageUnavailableError';
+		this.cause = cause;
+	}
+}
+
+function client(c: AppConfig, endpoint: string): S3Client {
+	return new S3Client({
+		endpoint,
+		region: c.S3_REGION,
+		forcePathStyle: c.S3_FORCE_PATH_STYLE,
+		credentials: { accessKeyId: c.S3_ACCESS_KEY_ID, secretAccessKey: c.S3_SECRET_ACCESS_KEY },
+		// With the SDK defaults a streamed upload was stored with chunk framing inside the object.
+		requestChecksumCalculation: 'WHEN_REQUIRED',
+		responseChecksumValidation: 'WHEN_REQUIRED',
+		maxAttempts: 2
+	});
+}
+
+export interface Storage {
+	bucket: string;
+	presignPut(key: string, contentType: string, contentLength: number, expiresInS?: number): Promise<string>;
+	presignGet(key: string, downloadName: string, expiresInS?: number): Promise<string>;
+	head(key: string): Promise<{ size: number; contentType: string | undefined } | null>;
+	getBytes(key: string, range?: { start: number; end: number }): Promise<Uint8Array>;
+	put(key: string, body: PutObjectCommandInput['Body'], contentType: string, contentLength?: number): Promise<void>;
+	remove(key: string): Promise<void>;
+}
+
+const isNotFound = (e: unknown) => {
+	const x = e as { name?: string; $metadata?: { httpStatusCode?: number } };
+	return x?.name === 'NotFound' || x?.name === 'NoSuchKey' || x?.$metadata?.httpStatusCode === 404;
+};
+
+/** Network-level failures become StorageUnavailableError; S3 answers pass through. */
+async function guard<T>(work: () => Promise<T>): Promise<T> {
+	try {
+		return await work();
+	} catch (e) {
+		if ((e as { $metadata?: { httpStatusCode?: number } })?.$metadata?.httpStatusCode) throw e;
+		throw new StorageUnavailableError(e);
+	}
+}
+
+export function createStorage(c: AppConfig = config()): Storage {
+	const s3 = client(c, c.S3_ENDPOINT);
+	const publicS3 = c.S3_PUBLIC_ENDPOINT ? client(c, c.S3_PUBLIC_ENDPOINT) : s3;
+	const Bucket = c.S3_BUCKET;
+	return {
+		bucket: Bucket,
+		presignPut(key, contentType, contentLength, expiresInS = 900) {
+			// Content type and length are signed: the store refuses a PUT that differs.
+			return getSignedUrl(publicS3, new PutObjectCommand({ Bucket, Key: key, ContentType: contentType, ContentLength: contentLength }), {
+				expiresIn: expiresInS,
+				signableHeaders: new Set(['content-type', 'content-length'])
+			});
+		},
+		presignGet(key, downloadName, expiresInS = 300) {
+			const safe = downloadName.replace(/[^\w.\- ]+/g, '_');
+			return getSignedUrl(publicS3, new GetObjectCommand({ Bucket, Key: key, ResponseContentDisposition: `attachment; filename="${safe}"` }), {
+				expiresIn: expiresInS
+			});
+		},
+		async head(key) {
+			try {
+				const r = await guard(() => s3.send(new HeadObjectCommand({ Bucket, Key: key })));
+				return { size: Number(r.ContentLength ?? 0), contentType: r.ContentType };
+			} catch (e) {
+				if (isNotFound(e)) return null;
+				throw e;
+			}
+		},
+		async getBytes(key, range) {
+			const r = await guard(() =>
+				s3.send(new GetObjectCommand({ Bucket, Key: key, Range: range ? `bytes=${range.start}-${range.end}` : undefined }))
+			);
+			return new Uint8Array(await r.Body!.transformToByteArray());
+		},
+		async put(key, body, contentType, contentLength) {
+			await guard(() => s3.send(new PutObjectCommand({ Bucket, Key: key, Body: body, ContentType: contentType, ContentLength: contentLength })));
+		},
+		async remove(key) {
+			await guard(() => s3.send(new DeleteObjectCommand({ Bucket, Key: key })));
+		}
+	};
+}
+
+let shared: Storage | undefined;
+export function storage(): Storage {
+	shared ??= createStorage();
+	return shared;
+}
+
+/** Object keys are random, so knowing one capture's key tells nothing about another's. */
+export function newObjectKey(prefix: 'captures' | 'references' | 'sweeps' | 'reports'): string {
+	return `${prefix}/${randomUUID()}.${prefix === 'reports' ? 'pdf' : 'wav'}`;
+}

@@ -1,0 +1,16 @@
+import { redirect } from '@sveltejs/kit';
+import { authorize } from '$lib/server/auth/access';
+import { answer } from '$lib/server/api';
+import { getCapture } from '$lib/server/queries/captures';
+import { db } from '$lib/server/db';
+import { storage } from '$lib/server/storage';
+import type { RequestHandler } from './$types';
+
+/** The original file, through a short-lived presigned link (the object key itself is random). */
+export const GET: RequestHandler = async ({ locals, params }) =>
+	answer(async () => {
+		const captureId = Number(params.captureId);
+		await authorize(locals, 'project:internal', { captureId });
+		const c = (await getCapture(db(), captureId))!;
+		redirect(302, await storage().presignGet(c.objectKey, c.filename));
+	});

@@ -1,0 +1,28 @@
+import { json } from '@sveltejs/kit';
+import { authorize } from '$lib/server/auth/access';
+import { answer, parseJsonBody } from '$lib/server/api';
+import { createCapture } from '$lib/server/captures/service';
+import { sessionCaptureViews, toView } from '$lib/server/captures/views';
+import { config } from '$lib/server/config';
+import { db } from '$lib/server/db';
+import { createCaptureSchema } from '$lib/schemas/captures';
+import type { RequestHandler } from './$types';
+
+/** The visit's captures and their states (polled by the visit page while work is pending). */
+export const GET: RequestHandler = async ({ locals, params }) => {
+	const sessionId = Number(params.sessionId);
+	await authorize(locals, 'project:internal', { sessionId });
+	const captures = await sessionCaptureViews(db(), sessionId);
+	const pending = captures.filter((c) => ['awaiting_upload', 'queued', 'analysing'].includes(c.status)).length;
+	return json({ captures, pending });
+};
+
+/** Announce a file: validates the metadata, creates the capture and returns presigned upload URL(s). */
+export const POST: RequestHandler = async ({ locals, params, request }) =>
+	answer(async () => {
+		const sessionId = Number(params.sessionId);
+		const scope = await authorize(locals, 'capture:write', { sessionId });
+		const input = await parseJsonBody(request, createCaptureSchema(config().UPLOAD_MAX_BYTES));
+		const created = await createCapture(scope, sessionId, input);
+		return json({ capture: toView(created.capture), upload: created.upload, referenceUpload: created.referenceUpload }, { status: 201 });
+	});
