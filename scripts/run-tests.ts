@@ -7,6 +7,7 @@ import knex from 'knex';
 import { dataDir, migrate, profileEnv, ROOT, startServices, stopServices } from './stack';
 import { buildIfStale, startWebServer, startWorker, waitForHttp, type Child } from './processes';
 import { seedDemo } from './demo/seed';
+import { seedDemoCaptures } from './demo/seed-captures';
 import { loadConfig } from '../src/lib/server/config';
 import { knexSettings } from '../src/lib/server/db';
 
@@ -24,6 +25,7 @@ const dir = dataDir('test');
 rmSync(dir, { recursive: true, force: true });
 
 const env = profileEnv('test');
+Object.assign(process.env, env);
 const testEnv = { ...env, NODE_OPTIONS: '--import tsx', RINGDOWN_TEST: '1' };
 let services: Awaited<ReturnType<typeof startServices>> = [];
 const children: Child[] = [];
@@ -64,7 +66,8 @@ try {
 	services = await startServices('test');
 	await migrate(env);
 	const k = knex(knexSettings(loadConfig(env)));
-	await seedDemo(k);
+	const seeded = await seedDemo(k);
+	await seedDemoCaptures(k, seeded.organizationId);
 	await k.destroy();
 	buildIfStale();
 	const web = startWebServer(env, true);

@@ -4,6 +4,7 @@ import knex from 'knex';
 import { migrate, ports, profileEnv, startServices, stopServices } from './stack';
 import { buildIfStale, startChild, startWebServer, startWorker, waitForHttp, type Child } from './processes';
 import { seedDemo } from './demo/seed';
+import { seedDemoCaptures } from './demo/seed-captures';
 import { DEMO_PASSWORD, DEMO_USERS } from './demo/scenario';
 import { loadConfig } from '../src/lib/server/config';
 import { knexSettings } from '../src/lib/server/db';
@@ -12,6 +13,8 @@ import { ROOT } from './stack';
 
 const dev = process.argv.includes('--dev');
 const env = profileEnv('demo');
+// The seed uses the app's own modules, which read their settings from the environment.
+Object.assign(process.env, env);
 const p = ports('demo');
 const t0 = Date.now();
 
@@ -36,8 +39,11 @@ try {
 	console.log(`» Database migrated${applied.length ? ` (${applied.length} new)` : ''}`);
 	const k = knex(knexSettings(loadConfig(env)));
 	const seeded = await seedDemo(k);
+	if (seeded.created) {
+		const n = await seedDemoCaptures(k, seeded.organizationId);
+		console.log(`» Demo data seeded; ${n} synthetic captures queued for the worker`);
+	} else console.log('» Demo data already there, reused');
 	await k.destroy();
-	console.log(seeded.created ? '» Demo data seeded' : '» Demo data already there, reused');
 
 	if (dev) {
 		children.push(startChild('vite dev', join(ROOT, 'node_modules/.bin/vite'), ['dev', '--port', String(p.app), '--strictPort'], env));

@@ -8,6 +8,9 @@ import { closeDb, db } from '../src/lib/server/db';
 import { createTransport, deliverDueMail } from '../src/lib/server/mail';
 import { createStorage } from '../src/lib/server/storage';
 import { runNextJob } from '../src/lib/server/jobs/runner';
+import { removeAbandonedUploads } from '../src/lib/server/captures/service';
+
+const HOUSEKEEPING_MS = 10 * 60_000;
 
 const POLL_MS = Number(process.env.WORKER_POLL_MS ?? 500);
 const LEASE_MS = Number(process.env.JOB_LEASE_MS ?? 60_000);
@@ -29,9 +32,15 @@ async function main() {
 	const transport = createTransport();
 	const from = config().MAIL_FROM;
 	log('started');
+	let lastHousekeeping = 0;
 	while (!stopping) {
 		let busy = false;
 		try {
+			if (Date.now() - lastHousekeeping > HOUSEKEEPING_MS) {
+				lastHousekeeping = Date.now();
+				const removed = await removeAbandonedUploads(k, 24, s);
+				if (removed) log(`removed ${removed} abandoned upload(s)`);
+			}
 			const outcome = await runNextJob(k, s, { owner, leaseMs: LEASE_MS, log });
 			if (outcome) busy = true;
 			if ((await deliverDueMail(k, transport, from)) > 0) busy = true;

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { ROLES } from '$lib/roles';
+import { ROLES } from '../roles';
 import { email } from './auth';
 
 const text = (label: string, max: number) =>

@@ -1,5 +1,5 @@
 // The text of the e-mails Ringdown sends. Plain text first; every message carries its link.
-import { ROLE_LABELS, type Role } from '$lib/roles';
+import { ROLE_LABELS, type Role } from '../roles';
 
 export function invitationMail(p: { organizationName: string; role: Role; link: string; inviterName: string }) {
 	return {

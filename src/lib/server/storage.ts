@@ -1,6 +1,7 @@
 // Object storage through the AWS SDK only, so any S3-compatible service is a configuration change.
 import {
 	DeleteObjectCommand,
+	HeadBucketCommand,
 	GetObjectCommand,
 	HeadObjectCommand,
 	PutObjectCommand,
@@ -34,6 +35,8 @@ function client(c: AppConfig, endpoint: string): S3Client {
 
 export interface Storage {
 	bucket: string;
+	/** Throws StorageUnavailableError when the store cannot be reached. */
+	ping(): Promise<void>;
 	presignPut(key: string, contentType: string, contentLength: number, expiresInS?: number): Promise<string>;
 	presignGet(key: string, downloadName: string, expiresInS?: number): Promise<string>;
 	head(key: string): Promise<{ size: number; contentType: string | undefined } | null>;
@@ -63,6 +66,9 @@ export function createStorage(c: AppConfig = config()): Storage {
 	const Bucket = c.S3_BUCKET;
 	return {
 		bucket: Bucket,
+		async ping() {
+			await guard(() => s3.send(new HeadBucketCommand({ Bucket })));
+		},
 		presignPut(key, contentType, contentLength, expiresInS = 900) {
 			// Content type and length are signed: the store refuses a PUT that differs.
 			return getSignedUrl(publicS3, new PutObjectCommand({ Bucket, Key: key, ContentType: contentType, ContentLength: contentLength }), {

@@ -2,12 +2,12 @@
 // recordings of it are deconvolved against exactly the samples that were played.
 import type { Knex } from 'knex';
 import type { z } from 'zod';
-import { encodeWav, generateExponentialSweep } from '$lib/analysis';
+import { encodeWav, generateExponentialSweep } from '../analysis';
 import { recordAudit } from './audit';
 import { newObjectKey, storage, type Storage } from './storage';
 import { transaction } from './transaction';
 import type { Scope } from './auth/access';
-import type { sweepDefinitionSchema } from '$lib/schemas/captures';
+import type { sweepDefinitionSchema } from '../schemas/captures';
 
 export type SweepInput = z.infer<typeof sweepDefinitionSchema>;
 

@@ -3,7 +3,7 @@
 import { error } from '@sveltejs/kit';
 import type { Knex } from 'knex';
 import { db } from '../db';
-import { roleAllows, roleNeedsProjectMembership, type Permission, type Role } from '$lib/roles';
+import { roleAllows, roleNeedsProjectMembership, type Permission, type Role } from '../../roles';
 
 export interface SessionUser {
 	id: number;

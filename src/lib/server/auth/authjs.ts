@@ -4,7 +4,7 @@ import Credentials from '@auth/sveltekit/providers/credentials';
 import { Auth, raw, skipCSRFCheck } from '@auth/core';
 import { db } from '../db';
 import { verifyPassword } from './password';
-import { signInSchema } from '$lib/schemas/auth';
+import { signInSchema } from '../../schemas/auth';
 
 const SESSION_HOURS = 12;
 

@@ -10,7 +10,7 @@ import { newObjectKey, storage, type Storage } from '../storage';
 import { transaction } from '../transaction';
 import { findDuplicate, getCapture, type CaptureRow } from '../queries/captures';
 import { HEADER_PROBE_BYTES, inspectWavHeader, WavHeaderError, type WavHeader } from './wav-header';
-import type { CreateCaptureInput } from '$lib/schemas/captures';
+import type { CreateCaptureInput } from '../../schemas/captures';
 import type { Scope } from '../auth/access';
 
 export class CaptureProblem extends Error {
@@ -58,6 +58,8 @@ export async function createCapture(scope: Scope, sessionId: number, input: Crea
 		const sweep = await k('sweep_definitions').where({ id: input.sweepDefinitionId, organization_id: scope.organizationId }).first('id');
 		if (!sweep) throw new CaptureProblem(400, 'Pick a test signal of this organization.', { field: 'sweepDefinitionId' });
 	}
+	// Presigning works offline, so ask the store first: if it is down, say so now and write nothing.
+	await s.ping();
 	const objectKey = newObjectKey('captures');
 	const referenceObjectKey = input.reference ? newObjectKey('references') : null;
 	// Presign first: if storage is misconfigured nothing has been written yet.
@@ -167,7 +169,7 @@ export async function removeCapture(scope: Scope, capture: CaptureRow, s: Storag
 		await trx('captures').where({ id: capture.id }).del();
 		await recordAudit(trx, {
 			organizationId: scope.organizationId,
-			userId: scope.user.id,
+			userId: scope.user.id || null, // 0: the system itself (abandoned uploads)
 			action,
 			entityType: 'capture',
 			entityId: capture.id,
@@ -192,4 +194,22 @@ export async function requeueCaptures(scope: Scope, captureIds: number[]): Promi
 		}
 			return queued;
 	});
+}
+
+/** Uploads announced but never finished (the browser was closed): remove row and any object. */
+export async function removeAbandonedUploads(k: Knex, olderThanHours = 24, s: Storage = storage()): Promise<number> {
+	const stale = await k('captures as c')
+		.join('sessions as se', 'se.id', 'c.session_id')
+		.join('rooms as r', 'r.id', 'se.room_id')
+		.join('projects as p', 'p.id', 'r.project_id')
+		.where('c.status', 'awaiting_upload')
+		.where('c.created_at', '<', new Date(Date.now() - olderThanHours * 3600_000))
+		.select('c.id', 'p.organization_id');
+	for (const row of stale) {
+		const capture = await getCapture(k, row.id);
+		if (!capture) continue;
+		const system: Scope = { organizationId: row.organization_id, projectId: null, role: 'admin', user: { id: 0, email: '', name: 'system', unitSystem: 'metric' } };
+		await removeCapture(system, capture, s, 'capture.abandoned');
+	}
+	return stale.length;
 }

@@ -3,7 +3,7 @@
 // completion in one transaction.
 import { createHash } from 'node:crypto';
 import type { Knex } from 'knex';
-import { analyseRecording, decodeWav, isAnalysisInputError, type AnalysisResult } from '$lib/analysis';
+import { analyseRecording, decodeWav, isAnalysisInputError, type AnalysisResult } from '../../analysis';
 import { config } from '../config';
 import { enqueueMail } from '../mail';
 import { sessionAnalysedMail } from '../messages';

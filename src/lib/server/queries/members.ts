@@ -1,5 +1,5 @@
 import type { Knex } from 'knex';
-import type { Role } from '$lib/roles';
+import type { Role } from '../../roles';
 import { hashToken, newToken } from '../auth/tokens';
 import { hashPassword } from '../auth/password';
 

@@ -1,6 +1,6 @@
 import type { Knex } from 'knex';
 import type { Membership } from '../auth/access';
-import { roleNeedsProjectMembership } from '$lib/roles';
+import { roleNeedsProjectMembership } from '../../roles';
 
 export interface ProjectRow {
 	id: number;

@@ -11,6 +11,8 @@ import { mapDuplicate, ConflictError } from '$lib/server/db-errors';
 import { transaction } from '$lib/server/transaction';
 import { positionSchema } from '$lib/schemas/projects';
 import { roleAllows } from '$lib/roles';
+import { sessionCaptureViews } from '$lib/server/captures/views';
+import { listSweeps } from '$lib/server/sweeps';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load = (async ({ locals, params }) => {
@@ -21,15 +23,19 @@ export const load = (async ({ locals, params }) => {
 	if (!session) error(404, 'Not found.');
 	const room = (await getRoom(k, session.roomId))!;
 	const project = (await getProject(k, room.projectId))!;
+	const internal = roleAllows(scope.role, 'project:internal');
+	const upload = roleAllows(scope.role, 'capture:write');
 	return {
+		captures: internal ? await sessionCaptureViews(k, sessionId) : [],
+		sweeps: upload ? (await listSweeps(k, scope.organizationId)).map((s) => ({ id: s.id, name: s.name })) : [],
 		session,
 		room: { id: room.id, name: room.name, lengthM: room.lengthM, widthM: room.widthM, heightM: room.heightM },
 		project: { id: project.id, name: project.name },
 		positions: await listPositions(k, sessionId),
 		can: {
 			edit: roleAllows(scope.role, 'project:edit'),
-			upload: roleAllows(scope.role, 'capture:write'),
-			internal: roleAllows(scope.role, 'project:internal')
+			upload,
+			internal
 		}
 	};
 }) satisfies PageServerLoad;

@@ -1,0 +1,101 @@
+// Synthetic impulse responses for the demo room, made from formulas: the direct sound, the six
+// first-order image-source reflections, a diffuse tail per octave band decaying with that band's
+// reverberation time, a few lightly damped axial modes, and a background-noise floor.
+// Invented but physically plausible; for the demo only — never used as a check value.
+import {
+	createSeededGaussian,
+	designButterworthBandpass,
+	filterForwardInPlace,
+	firstOrderImages,
+	speedOfSound,
+	type Point3,
+	type RoomBox
+} from '../../src/lib/analysis';
+
+export interface Condition {
+	/** Reverberation time per octave band 63 … 8000 Hz, seconds. */
+	t60S: number[];
+	/** Pressure reflection factor of each surface for the early reflections. */
+	reflection: Record<'floor' | 'ceiling' | 'front' | 'back' | 'left' | 'right', number>;
+	/** Decay time of the axial modes below 100 Hz, seconds. */
+	modeT60S: number;
+}
+
+export const OCTAVES_HZ = [63, 125, 250, 500, 1000, 2000, 4000, 8000];
+
+export const UNTREATED: Condition = {
+	t60S: [0.92, 0.78, 0.62, 0.55, 0.52, 0.5, 0.46, 0.4],
+	reflection: { floor: 0.8, ceiling: 0.85, front: 0.8, back: 0.85, left: 0.9, right: 0.9 },
+	modeT60S: 1.1
+};
+
+export const TREATED: Condition = {
+	t60S: [0.5, 0.4, 0.32, 0.29, 0.28, 0.27, 0.26, 0.25],
+	reflection: { floor: 0.75, ceiling: 0.5, front: 0.7, back: 0.35, left: 0.3, right: 0.3 },
+	modeT60S: 0.5
+};
+
+export function synthesiseResponse(room: RoomBox, source: Point3, mic: Point3, condition: Condition, seed: number, sampleRate = 48_000, lengthS = 1.8): Float64Array {
+	const n = Math.round(lengthS * sampleRate);
+	const ir = new Float64Array(n);
+	const c = speedOfSound(20);
+	const directM = Math.hypot(source.x - mic.x, source.y - mic.y, source.z - mic.z);
+	const lead = 0.005; // a little silence before the direct sound
+	const at = (delayS: number) => Math.round((lead + delayS) * sampleRate);
+
+	// Direct sound and first-order reflections, as short Hann pulses (band-limited impulses).
+	const pulse = (index: number, amplitude: number) => {
+		const half = 3;
+		for (let i = -half; i <= half; i++) {
+			const w = 0.5 * (1 + Math.cos((Math.PI * i) / (half + 1)));
+			if (index + i >= 0 && index + i < n) ir[index + i] += amplitude * w;
+		}
+	};
+	pulse(at(directM / c), 1);
+	for (const image of firstOrderImages(room, source, mic, 20)) {
+		pulse(at(image.pathM / c), (condition.reflection[image.surface] * directM) / image.pathM);
+	}
+
+	// Diffuse tail: octave bands of noise, each with its own exponential decay, starting at the
+	// first reflection and rising over a few milliseconds.
+	const gauss = createSeededGaussian(seed);
+	const tailStart = at(directM / c) + Math.round(0.002 * sampleRate);
+	const tailLevel = 0.09;
+	OCTAVES_HZ.forEach((fc, b) => {
+		const band = new Float64Array(n);
+		for (let i = tailStart; i < n; i++) band[i] = gauss();
+		filterForwardInPlace(designButterworthBandpass(2, fc / Math.SQRT2, Math.min(fc * Math.SQRT2, sampleRate * 0.45), sampleRate), band);
+		const k = (3 * Math.LN10) / condition.t60S[b]; // amplitude decay: 60 dB in T
+		for (let i = tailStart; i < n; i++) {
+			const t = (i - tailStart) / sampleRate;
+			const rise = Math.min(1, t / 0.004);
+			ir[i] += tailLevel * rise * Math.exp(-k * t) * band[i];
+		}
+	});
+
+	// Axial modes below 100 Hz ring longer than the rest of the low end.
+	const kMode = (3 * Math.LN10) / condition.modeT60S;
+	const dims = [room.lengthM, room.widthM, room.heightM];
+	const phase = createSeededGaussian(seed + 1);
+	for (const d of dims) {
+		for (let order = 1; (order * c) / (2 * d) < 100; order++) {
+			const f = (order * c) / (2 * d);
+			const p0 = phase() * Math.PI;
+			for (let i = tailStart; i < n; i++) {
+				const t = (i - tailStart) / sampleRate;
+				ir[i] += 0.018 * Math.exp(-kMode * t) * Math.sin(2 * Math.PI * f * t + p0);
+			}
+		}
+	}
+
+	// Background noise about 72 dB below the direct sound's peak.
+	const noise = createSeededGaussian(seed + 2);
+	for (let i = 0; i < n; i++) ir[i] += 2.5e-4 * noise();
+
+	// Scale to −3 dBFS peak.
+	let peak = 0;
+	for (let i = 0; i < n; i++) peak = Math.max(peak, Math.abs(ir[i]));
+	const g = 0.707 / peak;
+	for (let i = 0; i < n; i++) ir[i] *= g;
+	return ir;
+}
