@@ -36,7 +36,8 @@ export function startWebServer(env: Record<string, string>, quiet = false): Chil
 }
 
 export function startWorker(env: Record<string, string>, quiet = false): Child {
-	return startChild('worker', join(ROOT, 'node_modules/.bin/tsx'), ['scripts/worker.ts'], env, quiet);
+	// Node with the tsx loader rather than the tsx wrapper, so signals reach the worker itself.
+	return startChild('worker', process.execPath, ['--import', 'tsx', 'scripts/worker.ts'], env, quiet);
 }
 
 export async function waitForHttp(url: string, timeoutMs = 60_000): Promise<void> {

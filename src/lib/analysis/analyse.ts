@@ -229,13 +229,17 @@ function analyse(
 	const decayPoints = Math.max(2, Math.min(MAX_DECAY_POINTS, Math.floor(DECAY_POINT_BUDGET / (bank.filters.length + 1))));
 	const decayCurves = [decayCurve(BROADBAND, broadbandAnalysis, sampleRate, decayPoints)];
 	// One scratch buffer serves every band; each band's results are kept, its signals dropped.
-	const scratch = new Float64Array(bank.scratchLength(samples.length));
+	const maxLead = Math.max(...bank.filters.map((filter) => filter.padding));
+	const scratch = new Float64Array(bank.scratchLength(samples.length, maxLead));
 	const bands = bank.filters.map((filter, i) => {
-		const from = Math.max(0, start - filter.padding);
+		// Filter from 4/B before the start point (silence before the file if it starts sooner), so the
+		// band's pre-ringing ahead of the direct sound is kept and counted as early energy.
+		const lead = filter.padding;
+		const from = Math.max(0, start - lead);
 		const squared = clock.time('filtering', () =>
-			squareInPlace(bank.filterZeroPhase(i, samples, from, samples.length, scratch).subarray(start - from))
+			squareInPlace(bank.filterZeroPhase(i, samples, from, samples.length, scratch, lead - (start - from)))
 		);
-		const analysis = clock.time('decay', () => analyseDecay(squared, sampleRate, { bandwidthHz: filter.bandwidthHz }));
+		const analysis = clock.time('decay', () => analyseDecay(squared, sampleRate, { bandwidthHz: filter.bandwidthHz, startIndex: lead }));
 		collectWarnings(filter.band.nominalHz, analysis, warnings);
 		decayCurves.push(decayCurve(filter.band.nominalHz, analysis, sampleRate, decayPoints));
 		return bandMetrics(filter.band.nominalHz, filter.band.exactHz, analysis);

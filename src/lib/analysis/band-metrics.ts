@@ -14,10 +14,12 @@ import {
 	FILTER_BIAS_MIN_BT,
 	filterBiasProblem,
 	isFilterBiased,
+	NOISE_MARGIN_DB,
+	noiseMarginProblem,
 	peakToNoiseProblem,
 	rangeNotReachedProblem
 } from './quality';
-import { exponentialTailEnergy, schroederDecay } from './schroeder';
+import { decayLevelDb, exponentialTailEnergy, schroederDecay } from './schroeder';
 
 export const DECAY_METRICS: readonly DecayMetric[] = ['edt', 't20', 't30'];
 
@@ -31,6 +33,8 @@ export interface DecayAnalysis {
 	peakToNoiseDb: number;
 	/** Schroeder decay from the start point to the truncation point, linear energy re its start. */
 	decay: Float64Array;
+	/** Level of the compensated decay curve at the truncation point, dB re its start (≈ where the decay meets the noise). */
+	decayDepthDb: number;
 	/** Fits of the values that are trusted; the others are null. */
 	fits: Record<DecayMetric, DecayFit | null>;
 	energy: EnergyParameters | null;
@@ -40,6 +44,8 @@ export interface DecayAnalysis {
 }
 
 export interface DecayAnalysisOptions {
+	/** Index of the start point in `squared` (default 0); earlier samples count only as early energy. */
+	startIndex?: number;
 	/** Band filter bandwidth for the B·T criterion; omitted for the broadband response. */
 	bandwidthHz?: number;
 	biasCriterion?: number;
@@ -58,7 +64,9 @@ export function squareInPlace(x: Float64Array): Float64Array {
 	return x;
 }
 
-export function analyseDecay(squared: Float64Array, sampleRate: number, options: DecayAnalysisOptions = {}): DecayAnalysis {
+export function analyseDecay(withPreOnset: Float64Array, sampleRate: number, options: DecayAnalysisOptions = {}): DecayAnalysis {
+	const startIndex = options.startIndex ?? 0;
+	const squared = withPreOnset.subarray(startIndex);
 	const noise = estimateNoiseFloor(squared, sampleRate);
 	const peakToNoiseDb = -noise.noiseDbRePeak;
 	const problems: BandProblem[] = [];
@@ -66,6 +74,8 @@ export function analyseDecay(squared: Float64Array, sampleRate: number, options:
 	const tailEnergy = slope === null ? 0 : exponentialTailEnergy(noise.powerAtCrosspoint, slope, sampleRate);
 	const decay = schroederDecay(squared, noise.crosspointIndex, tailEnergy);
 
+	// With the tail compensated, the curve ends at about the decay's depth below its start: where it meets the noise.
+	const decayDepthDb = decayLevelDb(decay[decay.length - 1]);
 	const fits = { edt: null, t20: null, t30: null } as Record<DecayMetric, DecayFit | null>;
 	if (slope === null) {
 		problems.push({ code: 'no_decay_found', message: 'no decay above the background was found: check the capture' });
@@ -75,6 +85,11 @@ export function analyseDecay(squared: Float64Array, sampleRate: number, options:
 		const dynamicRange = peakToNoiseProblem(metric, peakToNoiseDb);
 		if (dynamicRange) {
 			problems.push({ code: 'insufficient_dynamic_range', message: dynamicRange });
+			continue;
+		}
+		const { bottomDb } = EVALUATION_RANGES[metric];
+		if (slope !== null && noise.crosspointIndex < squared.length && decayDepthDb > bottomDb - NOISE_MARGIN_DB) {
+			problems.push({ code: 'insufficient_dynamic_range', message: noiseMarginProblem(metric, bottomDb, decayDepthDb) });
 			continue;
 		}
 		const fit = fitDecayRange(decay, sampleRate, EVALUATION_RANGES[metric]);
@@ -89,10 +104,13 @@ export function analyseDecay(squared: Float64Array, sampleRate: number, options:
 	if (slope !== null && !energyTrusted) problems.push({ code: 'insufficient_dynamic_range', message: energyProblem(peakToNoiseDb) });
 	const energy =
 		slope !== null && energyTrusted
-			? energyParameters(squared, sampleRate, noise.crosspointIndex, {
-					powerAtTruncation: noise.powerAtCrosspoint,
-					decayRatePerS: (-slope * Math.LN10) / 10
-				})
+			? energyParameters(
+					withPreOnset,
+					sampleRate,
+					startIndex + noise.crosspointIndex,
+					{ powerAtTruncation: noise.powerAtCrosspoint, decayRatePerS: (-slope * Math.LN10) / 10 },
+					startIndex
+				)
 			: null;
 
 	const t20 = fits.t20?.reverberationTimeS ?? null;
@@ -109,5 +127,5 @@ export function analyseDecay(squared: Float64Array, sampleRate: number, options:
 		biased = isFilterBiased(options.bandwidthHz, longestTrusted, criterion);
 		if (biased) problems.push({ code: 'filter_bias', message: filterBiasProblem(options.bandwidthHz, longestTrusted, criterion) });
 	}
-	return { noise, peakToNoiseDb, decay, fits, energy, curvaturePct, biased, problems };
+	return { noise, peakToNoiseDb, decay, decayDepthDb, fits, energy, curvaturePct, biased, problems };
 }

@@ -2,7 +2,8 @@
 
 export function roundTo(value: number, decimals: number): number {
 	const factor = 10 ** decimals;
-	return Math.round(value * factor) / factor;
+	// + 0 turns −0 into 0, so stored JSON reads back equal.
+	return Math.round(value * factor) / factor + 0;
 }
 
 /** Evenly spaced samples of a smooth curve (first and last kept), times from `sampleRate`. */

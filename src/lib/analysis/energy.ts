@@ -19,46 +19,41 @@ export interface DecayTail {
 	decayRatePerS: number;
 }
 
-/** Energy in [0, t) for t in seconds, in units of squared samples × samples. */
-function makeEnergyBefore(squared: Float64Array, end: number, sampleRate: number, tail: DecayTail | null) {
-	const t1 = end / sampleRate;
-	let total = 0;
-	for (let i = 0; i < end; i++) total += squared[i];
-	return (tS: number): number => {
-		const index = Math.round(tS * sampleRate);
-		if (index <= end) {
-			let sum = 0;
-			for (let i = 0; i < index; i++) sum += squared[i];
-			return sum;
-		}
-		if (!tail) return total;
-		const { powerAtTruncation: p1, decayRatePerS: k } = tail;
-		return total + ((p1 * sampleRate) / k) * (1 - Math.exp(-k * (tS - t1)));
-	};
-}
-
-export function energyParameters(squared: Float64Array, sampleRate: number, end: number, tail: DecayTail | null): EnergyParameters {
+/**
+ * C50, C80, D50 and Ts of squared[…end) (plus the tail past `end`), with time measured from
+ * `origin`, the start point. Samples before the origin — the pre-ringing a zero-phase band filter
+ * spreads ahead of the direct sound — count as early energy, where the filter took them from.
+ */
+export function energyParameters(squared: Float64Array, sampleRate: number, end: number, tail: DecayTail | null, origin = 0): EnergyParameters {
 	if (!(end >= 1 && end <= squared.length)) throw new RangeError(`truncation index ${end} outside 1…${squared.length}`);
+	if (!(Number.isInteger(origin) && origin >= 0 && origin < end)) throw new RangeError(`start point ${origin} outside 0…${end - 1}`);
 	if (tail && !(tail.decayRatePerS > 0 && tail.powerAtTruncation >= 0)) {
 		throw new RangeError('the tail needs a positive decay rate and a non-negative power');
 	}
-	const energyBefore = makeEnergyBefore(squared, end, sampleRate, tail);
-	const t1 = end / sampleRate;
-
+	const t1 = (end - origin) / sampleRate;
 	let total = 0;
 	let moment = 0;
 	for (let i = 0; i < end; i++) {
 		total += squared[i];
-		moment += (i / sampleRate) * squared[i];
+		moment += ((i - origin) / sampleRate) * squared[i];
 	}
+	const tailEnergy = tail ? (tail.powerAtTruncation * sampleRate) / tail.decayRatePerS : 0;
 	if (tail) {
 		// ∫ P₁e^(−k(t−t₁)) dt = P₁/k and ∫ t·P₁e^(−k(t−t₁)) dt = P₁(t₁/k + 1/k²), t from t₁ to ∞ (× fs for sample units).
 		const { powerAtTruncation: p1, decayRatePerS: k } = tail;
-		total += (p1 * sampleRate) / k;
 		moment += p1 * sampleRate * (t1 / k + 1 / (k * k));
 	}
+	total += tailEnergy;
 	if (!(total > 0)) throw new RangeError('the impulse response holds no energy after its start point');
 
+	/** Energy before time t after the origin: samples up to the truncation, the tail's share beyond. */
+	const energyBefore = (tS: number): number => {
+		const index = origin + Math.round(tS * sampleRate);
+		let sum = 0;
+		for (let i = 0; i < Math.min(index, end); i++) sum += squared[i];
+		if (index > end && tail) sum += tailEnergy * (1 - Math.exp(-tail.decayRatePerS * (tS - t1)));
+		return sum;
+	};
 	const early50 = energyBefore(0.05);
 	const early80 = energyBefore(0.08);
 	// C_te = 10·lg(∫₀^te p² / ∫te^∞ p²), D50 = ∫₀^50ms p² / ∫₀^∞ p², Ts = ∫ t·p² / ∫ p² (ISO 3382-1:2009, Annex A).

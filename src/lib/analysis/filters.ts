@@ -203,11 +203,20 @@ export interface BandFilterBank {
 	 * The end is extended by its even mirror image (the background goes on), so the backward pass's
 	 * start-up transient falls outside; the start is not mirrored, which would echo the direct
 	 * sound before itself — start the range a little before the onset instead.
-	 * The result is a view of `scratch` when one of scratchLength(end − start) samples is given.
+	 * `leadingZeros` silent samples are put before the range (the silence before a file that starts
+	 * at its direct sound) so the backward pass's ringing ahead of it is kept; the result then
+	 * starts with them. It is a view of `scratch` when one of scratchLength(…) samples is given.
 	 */
-	filterZeroPhase(bandIndex: number, input: Float64Array, start?: number, end?: number, scratch?: Float64Array): Float64Array;
-	/** Scratch length filterZeroPhase needs for `length` input samples in any band. */
-	scratchLength(length: number): number;
+	filterZeroPhase(
+		bandIndex: number,
+		input: Float64Array,
+		start?: number,
+		end?: number,
+		scratch?: Float64Array,
+		leadingZeros?: number
+	): Float64Array;
+	/** Scratch length filterZeroPhase needs for `length` input samples (and leading zeros) in any band. */
+	scratchLength(length: number, leadingZeros?: number): number;
 }
 
 /**
@@ -232,20 +241,31 @@ export function createBandFilterBank(sampleRate: number, kind: BandKind): BandFi
 	});
 
 	const maxPadding = Math.max(...filters.map((filter) => filter.padding));
-	const scratchLength = (length: number) => length + Math.min(maxPadding, Math.max(0, length - 1));
+	const scratchLength = (length: number, leadingZeros = 0) => leadingZeros + length + Math.min(maxPadding, Math.max(0, length - 1));
 
-	function filterZeroPhase(bandIndex: number, input: Float64Array, start = 0, end = input.length, scratch?: Float64Array): Float64Array {
+	function filterZeroPhase(
+		bandIndex: number,
+		input: Float64Array,
+		start = 0,
+		end = input.length,
+		scratch?: Float64Array,
+		leadingZeros = 0
+	): Float64Array {
 		const filter = filters[bandIndex];
 		if (!filter) throw new RangeError(`no band ${bandIndex}: the bank has ${filters.length} bands`);
 		if (!(start >= 0 && end <= input.length && end > start)) throw new RangeError(`bad range ${start}…${end} of ${input.length} samples`);
+		if (!(Number.isInteger(leadingZeros) && leadingZeros >= 0)) throw new RangeError(`leading zeros must be a whole number, got ${leadingZeros}`);
 		const length = end - start;
 		const pad = Math.min(filter.padding, length - 1);
-		const work = scratch && scratch.length >= length + pad ? scratch.subarray(0, length + pad) : new Float64Array(length + pad);
-		work.set(input.subarray(start, end));
-		for (let i = 1; i <= pad; i++) work[length - 1 + i] = input[end - 1 - i];
+		const total = leadingZeros + length + pad;
+		const work = scratch && scratch.length >= total ? scratch.subarray(0, total) : new Float64Array(total);
+		work.fill(0, 0, leadingZeros);
+		work.set(input.subarray(start, end), leadingZeros);
+		const last = leadingZeros + length - 1;
+		for (let i = 1; i <= pad; i++) work[last + i] = input[end - 1 - i];
 		filterForwardInPlace(filter.sections, work);
 		filterBackwardInPlace(filter.sections, work);
-		return work.subarray(0, length);
+		return work.subarray(0, leadingZeros + length);
 	}
 
 	return { sampleRate, kind, filters, filterZeroPhase, scratchLength };

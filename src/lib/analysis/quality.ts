@@ -38,6 +38,13 @@ export function energyProblem(peakToNoiseDb: number): string {
 	return `peak-to-noise ${Math.round(peakToNoiseDb)} dB — C50, C80, D50 and Ts need ${MIN_PEAK_TO_NOISE_FOR_ENERGY_DB} dB: measure louder or longer`;
 }
 
+/** The bottom of an evaluation range must lie this far above the level where the decay meets the noise (ISO 3382-1:2009, from memory). */
+export const NOISE_MARGIN_DB = 10;
+
+export function noiseMarginProblem(metric: DecayMetric, bottomDb: number, decayDepthDb: number): string {
+	return `the decay meets the noise at ${Math.round(decayDepthDb)} dB — ${METRIC_LABELS[metric]} needs it below ${bottomDb - NOISE_MARGIN_DB} dB: measure louder or longer`;
+}
+
 export function rangeNotReachedProblem(metric: DecayMetric, bottomDb: number): string {
 	return `the decay does not reach ${bottomDb} dB before the noise — ${METRIC_LABELS[metric]} cannot be evaluated: measure louder or longer`;
 }

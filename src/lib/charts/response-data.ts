@@ -40,14 +40,14 @@ export function responsePlotData(series: readonly ResponseSeries[]): AlignedSeri
 }
 
 /**
- * Exact one-third-octave mid-band frequencies, base ten: 1000·10^(x/10) Hz (IEC 61260-1:2014,
- * 5.2, G = 10^(3/10), b = 3), for x giving 20 Hz … 20 kHz.
+ * Exact one-third-octave mid-band frequencies inside [minHz, maxHz], base ten: 1000·10^(x/10) Hz
+ * (IEC 61260-1:2014, 5.2, G = 10^(3/10), b = 3), from the 20 Hz band (19.95 Hz) to the 20 kHz band.
  */
 export function thirdOctaveCentres(minHz: number, maxHz: number): number[] {
 	const centres: number[] = [];
 	for (let x = -17; x <= 13; x++) {
 		const f = 1000 * 10 ** (x / 10);
-		if (f >= minHz * 0.999 && f <= maxHz * 1.001) centres.push(f);
+		if (f >= minHz && f <= maxHz) centres.push(f);
 	}
 	return centres;
 }

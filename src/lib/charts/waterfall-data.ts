@@ -46,29 +46,28 @@ export interface WaterfallTable {
 }
 
 /**
- * Levels at the octave frequencies inside the data (read along each slice in log frequency)
- * for the slices nearest to 0, stepMs, 2·stepMs, … (a slice counts if within half its spacing).
+ * Levels at the octave frequencies inside the data (read along each slice in log frequency) for
+ * the slices nearest to 0, stepMs, 2·stepMs, …: a slice counts if within stepMs/2 of such a time,
+ * appears once, and is listed at its own time.
  */
 export function waterfallTable(w: Waterfall, stepMs = 50): WaterfallTable {
 	checkWaterfall(w);
 	if (!(stepMs > 0)) throw new RangeError(`stepMs must be > 0, got ${stepMs}`);
 	const freqs = w.freqHz.length > 1 ? octaveTicks(w.freqHz[0], w.freqHz[w.freqHz.length - 1]) : [];
-	const spacing = w.timesMs.length > 1 ? (w.timesMs[w.timesMs.length - 1] - w.timesMs[0]) / (w.timesMs.length - 1) : stepMs;
-	const rows: CsvCell[][] = [];
-	const first = Math.ceil((w.timesMs[0] - spacing / 2) / stepMs);
-	const last = Math.floor((w.timesMs[w.timesMs.length - 1] + spacing / 2) / stepMs);
+	const first = Math.ceil((w.timesMs[0] - stepMs / 2) / stepMs);
+	const last = Math.floor((w.timesMs[w.timesMs.length - 1] + stepMs / 2) / stepMs);
+	const slices: number[] = [];
 	for (let k = first; k <= last; k++) {
-		const t = k * stepMs;
-		const s = nearestIndex(w.timesMs, t);
-		if (Math.abs(w.timesMs[s] - t) > spacing / 2 + 1e-9) continue;
-		rows.push([
-			t,
-			...freqs.map((f) => {
-				const v = interpolateLogFrequency(w.freqHz, w.levelsDb[s], f);
-				return v === null ? null : Math.round(v * 10) / 10;
-			})
-		]);
+		const s = nearestIndex(w.timesMs, k * stepMs);
+		if (Math.abs(w.timesMs[s] - k * stepMs) <= stepMs / 2 && !slices.includes(s)) slices.push(s);
 	}
+	const rows: CsvCell[][] = slices.map((s) => [
+		w.timesMs[s],
+		...freqs.map((f) => {
+			const v = interpolateLogFrequency(w.freqHz, w.levelsDb[s], f);
+			return v === null ? null : Math.round(v * 10) / 10;
+		})
+	]);
 	return { headers: ['Time (ms)', ...freqs.map((f) => `${f} Hz (dB)`)], rows };
 }
 

@@ -150,8 +150,12 @@ export async function confirmUpload(scope: Scope, captureId: number, s: Storage 
 export async function uploadThroughServer(scope: Scope, sessionId: number, input: CreateCaptureInput, file: File, reference: File | null, s: Storage = storage()): Promise<CaptureRow> {
 	const created = await createCapture(scope, sessionId, input, s);
 	try {
-		await s.put(created.capture.objectKey, file.stream() as unknown as ReadableStream, WAV_TYPE, file.size);
-		if (reference && created.capture.referenceObjectKey) await s.put(created.capture.referenceObjectKey, reference.stream() as unknown as ReadableStream, WAV_TYPE, reference.size);
+		// The multipart body is already in memory (the framework parses it whole), so hand the
+		// bytes over as they are.
+		await s.put(created.capture.objectKey, new Uint8Array(await file.arrayBuffer()), WAV_TYPE, file.size);
+		if (reference && created.capture.referenceObjectKey) {
+			await s.put(created.capture.referenceObjectKey, new Uint8Array(await reference.arrayBuffer()), WAV_TYPE, reference.size);
+		}
 	} catch (e) {
 		await removeCapture(scope, created.capture, s, 'capture.refused', { reason: 'upload to storage failed' });
 		throw e;
