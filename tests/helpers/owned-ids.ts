@@ -1,11 +1,34 @@
 import type { Knex } from 'knex';
+import { randomUUID } from 'node:crypto';
 import type { ProjectTree } from './factories';
 
 /**
  * Ids of everything a project tree owns, keyed by the route parameter names that take them.
- * Rows that later features add (captures, comparisons…) are created here when their tables
- * exist, so access tests reach those routes too.
+ * Rows that later features add are created here, so access tests reach those routes too.
  */
 export async function ownedIds(k: Knex, t: ProjectTree): Promise<Record<string, number | string>> {
-	return { projectId: t.projectId, roomId: t.roomId, sessionId: t.sessionId, positionId: t.positionId };
+	const project = await k('projects').where({ id: t.projectId }).first('organization_id');
+	const [captureId] = await k('captures').insert({
+		session_id: t.sessionId,
+		position_id: t.positionId,
+		kind: 'impulse',
+		original_filename: 'owned.wav',
+		object_key: `captures/${randomUUID()}.wav`,
+		status: 'awaiting_upload'
+	});
+	const [sweepId] = await k('sweep_definitions').insert({
+		organization_id: project.organization_id,
+		name: 'owned sweep',
+		f1_hz: 20,
+		f2_hz: 20000,
+		duration_s: 5,
+		fade_in_s: 0.05,
+		fade_out_s: 0.05,
+		silence_s: 2,
+		sample_rate: 48000,
+		bit_depth: '24',
+		level_dbfs: -6,
+		object_key: `sweeps/${randomUUID()}.wav`
+	});
+	return { projectId: t.projectId, roomId: t.roomId, sessionId: t.sessionId, positionId: t.positionId, captureId, sweepId };
 }

@@ -14,6 +14,8 @@ import {
 	FILTER_BIAS_MIN_BT,
 	filterBiasProblem,
 	isFilterBiased,
+	MIN_BANDWIDTH_FOR_ENERGY_HZ,
+	timeResolutionProblem,
 	NOISE_MARGIN_DB,
 	noiseMarginProblem,
 	peakToNoiseProblem,
@@ -24,7 +26,7 @@ import { decayLevelDb, exponentialTailEnergy, schroederDecay } from './schroeder
 export const DECAY_METRICS: readonly DecayMetric[] = ['edt', 't20', 't30'];
 
 export interface BandProblem {
-	code: 'insufficient_dynamic_range' | 'decay_range_not_reached' | 'no_decay_found' | 'filter_bias' | 'curvature';
+	code: 'insufficient_dynamic_range' | 'decay_range_not_reached' | 'no_decay_found' | 'filter_bias' | 'filter_time_resolution' | 'curvature';
 	message: string;
 }
 
@@ -126,6 +128,10 @@ export function analyseDecay(withPreOnset: Float64Array, sampleRate: number, opt
 		const criterion = options.biasCriterion ?? FILTER_BIAS_MIN_BT.zeroPhase;
 		biased = isFilterBiased(options.bandwidthHz, longestTrusted, criterion);
 		if (biased) problems.push({ code: 'filter_bias', message: filterBiasProblem(options.bandwidthHz, longestTrusted, criterion) });
+	}
+	if (options.bandwidthHz !== undefined && energy !== null && options.bandwidthHz < MIN_BANDWIDTH_FOR_ENERGY_HZ) {
+		biased = true;
+		problems.push({ code: 'filter_time_resolution', message: timeResolutionProblem(options.bandwidthHz) });
 	}
 	return { noise, peakToNoiseDb, decay, decayDepthDb, fits, energy, curvaturePct, biased, problems };
 }

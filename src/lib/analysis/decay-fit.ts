@@ -29,6 +29,8 @@ export const EVALUATION_RANGES = {
 
 export type DecayMetric = keyof typeof EVALUATION_RANGES;
 
+const MAX_FIT_POINTS = 4000;
+
 /**
  * Least-squares line of 10·lg E against time through the decay curve E (linear, normalised to 1
  * at the start point) between the first points at or below `topDb` and `bottomDb`; null when the
@@ -46,15 +48,19 @@ export function fitDecayRange(decay: Float64Array, sampleRate: number, range: Ev
 	if (last >= decay.length || last - first < 2) return null;
 
 	// One pass: with x centred, Σ(x − x̄)(y − ȳ) = Σ(x − x̄)·y, and Σ(y − ȳ)² = Σy² − n·ȳ².
-	const count = last - first + 1;
-	const meanX = (first + last) / 2;
+	// Long ranges are sampled every `stride` points (at least ~4000 kept): the backward-integrated
+	// curve is smooth at that scale, and the logarithms are the cost.
+	const stride = Math.max(1, Math.floor((last - first) / MAX_FIT_POINTS));
+	const meanX = first + (Math.floor((last - first) / stride) * stride) / 2;
+	let count = 0;
 	let sumY = 0;
 	let sumYY = 0;
 	let sxy = 0;
 	let sxx = 0;
-	for (let i = first; i <= last; i++) {
+	for (let i = first; i <= last; i += stride) {
 		const y = 10 * Math.log10(decay[i]);
 		const dx = i - meanX;
+		count++;
 		sumY += y;
 		sumYY += y * y;
 		sxy += dx * y;

@@ -20,6 +20,16 @@ export const METRIC_LABELS: Record<DecayMetric, string> = { edt: 'EDT', t20: 'T2
  */
 export const FILTER_BIAS_MIN_BT = { forward: 16, timeReversed: 4, zeroPhase: 16 } as const;
 
+/**
+ * A band filter spreads every event over about 1/B; when that is not shorter than the 50 ms early
+ * window, C50, C80, D50 and Ts lose their meaning: B must exceed 1/50 ms = 20 Hz (common practice, no source).
+ */
+export const MIN_BANDWIDTH_FOR_ENERGY_HZ = 1 / 0.05;
+
+export function timeResolutionProblem(bandwidthHz: number): string {
+	return `the band filter smears over ≈ ${Math.round(1000 / bandwidthHz)} ms (1/B), not shorter than the 50 ms early window: C50, C80, D50 and Ts are marked biased`;
+}
+
 /** Curvature above 10 % marks a decay as suspect, e.g. double-sloped (ISO 3382-2:2008, Annex B). */
 export const CURVATURE_LIMIT_PERCENT = 10;
 

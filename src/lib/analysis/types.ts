@@ -58,7 +58,7 @@ export interface BandMetrics {
 	xi: DecayMetricValues<number | null>;
 	/** C = 100·(T30/T20 − 1), % (ISO 3382-2 Annex B). */
 	curvaturePct: number | null;
-	/** B·T too small for the band filter not to lengthen the decay (Jacobsen & Rindel 1987). */
+	/** B·T too small for the band filter not to lengthen the decay (Jacobsen & Rindel 1987), or B < 20 Hz for the energy parameters. */
 	biased: boolean;
 }
 

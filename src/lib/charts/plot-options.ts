@@ -5,6 +5,9 @@ import { CHART_COLOURS } from './palette';
 import { dbTickStep, linearTicks, octaveLabelStride, octaveTickLabels, octaveTicks } from './ticks';
 import { withAlpha } from './colour';
 
+/** uPlot options without the size, which the plot takes from its container. */
+export type PlotOptions = Omit<uPlot.Options, 'width' | 'height'>;
+
 export const AXIS_FONT = '11px "JetBrains Mono", ui-monospace, monospace';
 export const LABEL_FONT = '12px ui-sans-serif, system-ui, sans-serif';
 /** Width reserved per frequency label ("31.5", "12.5k" at 11 px mono plus a gap). */

@@ -43,6 +43,14 @@ export class UploadQueue {
 
 	add(files: FileList | File[]): void {
 		const { positions, sweepIds } = this.defaults();
+		// Files without a position in their name get the next free labels, one each.
+		const taken = new Set([...positions.map((p) => p.label), ...this.items.map((i) => i.position.replace(/^new:/, ''))]);
+		const nextFree = () => {
+			let n = 1;
+			while (taken.has(`P${n}`)) n++;
+			taken.add(`P${n}`);
+			return `P${n}`;
+		};
 		for (const file of files) {
 			const guessed = guessPositionLabel(file.name);
 			const existing = positions.find((p) => p.label === guessed);
@@ -50,7 +58,7 @@ export class UploadQueue {
 			this.items.push({
 				key: nextKey++,
 				file,
-				position: existing ? `id:${existing.id}` : `new:${guessed ?? `P${positions.length + 1}`}`,
+				position: existing ? `id:${existing.id}` : `new:${guessed ?? nextFree()}`,
 				kind: looksLikeSweep ? 'sweep' : 'impulse',
 				sweep: sweepIds.length ? `id:${sweepIds[0]}` : 'file',
 				reference: null,

@@ -31,10 +31,11 @@ async function resolvePosition(trx: Knex.Transaction, sessionId: number, input: 
 		return p.id;
 	}
 	const label = input.newPositionLabel!;
-	const existing = await trx('positions').where({ session_id: sessionId, label }).first('id');
-	if (existing) return existing.id;
-	const [id] = await trx('positions').insert({ session_id: sessionId, label });
-	return id;
+	// Two files of a batch may name the same new position at once: insert-or-ignore, then a
+	// locking read, which sees the row whichever transaction created it.
+	await trx('positions').insert({ session_id: sessionId, label }).onConflict(['session_id', 'label']).ignore();
+	const row = await trx('positions').where({ session_id: sessionId, label }).forUpdate().first('id');
+	return row.id;
 }
 
 export interface CreatedCapture {

@@ -6,7 +6,6 @@ import { toView } from '$lib/server/captures/views';
 import { analysisSummaries, getCapture } from '$lib/server/queries/captures';
 import { recordAudit } from '$lib/server/audit';
 import { db } from '$lib/server/db';
-import { mapDuplicate } from '$lib/server/db-errors';
 import { transaction } from '$lib/server/transaction';
 import { updateCaptureSchema } from '$lib/schemas/captures';
 import type { RequestHandler } from './$types';
@@ -36,8 +35,8 @@ export const PATCH: RequestHandler = async ({ locals, params, request }) =>
 				changes.position_id = p.id;
 			}
 			if (input.newPositionLabel) {
-				const existing = await trx('positions').where({ session_id: capture.sessionId, label: input.newPositionLabel }).first('id');
-				changes.position_id = existing?.id ?? (await mapDuplicate(trx('positions').insert({ session_id: capture.sessionId, label: input.newPositionLabel }), 'That position exists.'))[0];
+				await trx('positions').insert({ session_id: capture.sessionId, label: input.newPositionLabel }).onConflict(['session_id', 'label']).ignore();
+				changes.position_id = (await trx('positions').where({ session_id: capture.sessionId, label: input.newPositionLabel }).forUpdate().first('id')).id;
 			}
 			await trx('captures').where({ id: captureId }).update(changes);
 			await recordAudit(trx, { organizationId: scope.organizationId, userId: scope.user.id, action: 'capture.updated', entityType: 'capture', entityId: captureId, details: input });
