@@ -79,8 +79,9 @@ export interface MultiToneDecayOptions extends SyntheticDecayOptions {
 }
 
 /**
- * A sum of exponentially decaying cosines, one per band centre: each band filter sees one tone whose
- * squared envelope is √2-scaled e^(−k·t), so band values can be checked against the closed forms.
+ * A sum of exponentially decaying cosines, one per band centre, all in phase at the onset: each band
+ * filter sees one tone of mean square initialPower·e^(−k·t), so band values can be checked against
+ * the closed forms.
  */
 export function multiToneDecay(options: MultiToneDecayOptions): Float64Array {
 	const { t60S, durationS, sampleRate, frequenciesHz } = options;

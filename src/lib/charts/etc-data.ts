@@ -53,9 +53,10 @@ function overlaps(a: Box, b: Box): boolean {
 
 /**
  * Greedy placement in the order given (strongest first is best): each label sits above its
- * point, centred and kept inside the bounds, lifted by whole rows until it is clear of the
- * labels and points already placed; it falls back to its short form, then to none. The table
- * always carries every label, so a dropped label loses nothing.
+ * point, starting at the point (else ending at it, else centred on it) and kept inside the
+ * bounds, lifted by whole rows until it is clear of the labels and points already placed; it
+ * falls back to its short form, then to none. The table always carries every label, so a
+ * dropped label loses nothing.
  */
 export function placeLabels(
 	requests: readonly LabelRequest[],
@@ -69,14 +70,16 @@ export function placeLabels(
 		for (const form of ['full', 'short'] as const) {
 			const width = form === 'full' ? r.fullWidth : r.shortWidth;
 			if (width > bounds.right - bounds.left) continue;
-			const left = Math.min(bounds.right - width, Math.max(bounds.left, r.x - width / 2));
+			const lefts = [r.x - gap, r.x - width + gap, r.x - width / 2].map((left) => Math.min(bounds.right - width, Math.max(bounds.left, left)));
 			for (let lift = 0; lift <= maxLift; lift++) {
 				const top = r.y - gap - rowHeight * (lift + 1);
 				if (top < bounds.top) break;
-				const box = { left, top, right: left + width, bottom: top + rowHeight };
-				if (!taken.some((t) => overlaps(t, box))) {
-					taken.push(box);
-					return { form, left, top };
+				for (const left of lefts) {
+					const box = { left, top, right: left + width, bottom: top + rowHeight };
+					if (!taken.some((t) => overlaps(t, box))) {
+						taken.push(box);
+						return { form, left, top };
+					}
 				}
 			}
 		}

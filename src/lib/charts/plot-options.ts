@@ -1,6 +1,6 @@
 // Shared uPlot settings in our look: axes in JetBrains Mono, octave ticks on log-frequency
 // axes, whole-decibel ticks, and faint grids.
-import type uPlot from 'uplot';
+import uPlot from 'uplot';
 import { CHART_COLOURS } from './palette';
 import { dbTickStep, linearTicks, octaveLabelStride, octaveTickLabels, octaveTicks } from './ticks';
 import { withAlpha } from './colour';
@@ -31,8 +31,7 @@ export function logFrequencyAxis(label = 'Frequency (Hz)'): uPlot.Axis {
 		values: (u, splits) => {
 			const scale = u.scales.x;
 			const octaves = Math.log2((scale.max ?? 20000) / (scale.min ?? 20));
-			const widthPx = u.bbox.width / pixelRatio(u);
-			return octaveTickLabels(splits, octaveLabelStride(widthPx / Math.max(octaves, 1e-6), FREQUENCY_LABEL_PX));
+			return octaveTickLabels(splits, octaveLabelStride(plotWidthCss(u) / Math.max(octaves, 1e-6), FREQUENCY_LABEL_PX));
 		}
 	};
 }
@@ -45,7 +44,7 @@ export function levelAxis(label = 'Level (dB)', scale = 'y'): uPlot.Axis {
 		label,
 		labelSize: 18,
 		size: 44,
-		splits: (u, _axis, min, max) => linearTicks(min, max, dbTickStep(max - min, Math.max(1, u.bbox.height / pixelRatio(u)))),
+		splits: (u, _axis, min, max) => linearTicks(min, max, dbTickStep(max - min, plotHeightCss(u))),
 		values: (_u, splits) => splits.map((v) => (v < 0 ? `\u2212${Math.abs(v)}` : String(v)))
 	};
 }
@@ -56,7 +55,19 @@ export function plainAxis(label: string, scale?: string, side?: 0 | 1 | 2 | 3): 
 }
 
 /** uPlot draws in device pixels; its bbox is the CSS box scaled by this ratio. */
-export function pixelRatio(u: uPlot): number {
-	const cssWidth = u.over?.clientWidth ?? 0;
-	return cssWidth > 0 ? u.bbox.width / cssWidth : typeof window === 'undefined' ? 1 : window.devicePixelRatio || 1;
+export function pixelRatio(_u?: uPlot): number {
+	return uPlot.pxRatio || 1;
+}
+
+/**
+ * Plot-area size in CSS px estimated from the chart's own size less the axes (about 60 px
+ * across, 50 px down). Tick callbacks run while uPlot is still laying out, when bbox is not
+ * final yet, so they use these instead.
+ */
+function plotWidthCss(u: uPlot): number {
+	return Math.max(40, u.width - 60);
+}
+
+function plotHeightCss(u: uPlot): number {
+	return Math.max(40, u.height - 50);
 }

@@ -20,7 +20,7 @@ describe('placeLabels', () => {
 	const bounds = { left: 0, top: 0, right: 400, bottom: 200 };
 	const row = 14;
 
-	it('puts labels above their points when they do not collide', () => {
+	it('puts labels above their points, starting at the point, when they do not collide', () => {
 		const placed = placeLabels(
 			[
 				{ x: 100, y: 100, fullWidth: 80, shortWidth: 10 },
@@ -30,15 +30,15 @@ describe('placeLabels', () => {
 			row
 		);
 		expect(placed).toEqual([
-			{ form: 'full', left: 60, top: 100 - 4 - row },
-			{ form: 'full', left: 260, top: 100 - 4 - row }
+			{ form: 'full', left: 96, top: 100 - 4 - row },
+			{ form: 'full', left: 296, top: 100 - 4 - row }
 		]);
 	});
 
 	it('lifts a colliding label by a row, then shortens it, then drops it', () => {
 		const crowd = Array.from({ length: 6 }, () => ({ x: 200, y: 100, fullWidth: 120, shortWidth: 10 }));
 		const placed = placeLabels(crowd, bounds, row, 1);
-		// Two full rows (lift 0 and 1); a short label centred on the same point would sit inside those, so the rest are dropped.
+		// Two full rows (lift 0 and 1); a short label at the same point would sit inside those, so the rest are dropped.
 		expect(placed.map((p) => p.form)).toEqual(['full', 'full', 'none', 'none', 'none', 'none']);
 		expect(placed[1].top).toBe(placed[0].top - row);
 		// No two placed boxes overlap.
@@ -54,19 +54,40 @@ describe('placeLabels', () => {
 		}
 	});
 
-	it('falls back to the short form where only that fits beside a neighbour', () => {
-		// Full labels 120 px wide: the first covers 40…160; the second would cover 120…240 at every allowed lift.
+	it('ends a label at its point when starting there collides', () => {
+		// The first label covers 196…316. The second point at x = 190 would start its 50 px label at
+		// 186 (overlap); ending at the point puts it at 144…194, clear, on the same row.
 		const placed = placeLabels(
 			[
-				{ x: 100, y: 100, fullWidth: 120, shortWidth: 10 },
-				{ x: 180, y: 100, fullWidth: 120, shortWidth: 10 }
+				{ x: 200, y: 100, fullWidth: 120, shortWidth: 10 },
+				{ x: 190, y: 100, fullWidth: 50, shortWidth: 10 }
 			],
 			bounds,
 			row,
 			0
 		);
+		expect(placed).toEqual([
+			{ form: 'full', left: 196, top: 82 },
+			{ form: 'full', left: 144, top: 82 }
+		]);
+	});
+
+	it('falls back to the short form where only that fits beside a neighbour', () => {
+		// Plot 300 px wide. The first full label covers 96…216; the second point at x = 220 cannot
+		// fit its 120 px label anywhere clear (clamped start 180…300, end 104…224, centre 160…280),
+		// but its short label from 216 to 226 is clear.
+		const narrow = { left: 0, top: 0, right: 300, bottom: 200 };
+		const placed = placeLabels(
+			[
+				{ x: 100, y: 100, fullWidth: 120, shortWidth: 10 },
+				{ x: 220, y: 100, fullWidth: 120, shortWidth: 10 }
+			],
+			narrow,
+			row,
+			0
+		);
 		expect(placed.map((p) => p.form)).toEqual(['full', 'short']);
-		expect(placed[1].left).toBe(175);
+		expect(placed[1].left).toBe(216);
 	});
 
 	it('keeps labels inside the plot and drops them when there is no room above', () => {
