@@ -65,5 +65,7 @@ export function filterBiasProblem(bandwidthHz: number, reverberationTimeS: numbe
 }
 
 export function curvatureProblem(curvaturePct: number): string {
-	return `curvature ${curvaturePct.toFixed(0)} % (T30 vs T20) is above ${CURVATURE_LIMIT_PERCENT} %: the decay is not a single slope`;
+	// ISO 3382-2 Annex B flags |C| > 10 %: a T30 shorter than T20 is as suspect as a longer one.
+	const direction = curvaturePct >= 0 ? 'longer' : 'shorter';
+	return `curvature ${curvaturePct.toFixed(0)} %: T30 is ${Math.abs(curvaturePct).toFixed(0)} % ${direction} than T20 (more than ${CURVATURE_LIMIT_PERCENT} %): the decay is not a single slope`;
 }

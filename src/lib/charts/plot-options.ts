@@ -28,6 +28,8 @@ export function logFrequencyAxis(label = 'Frequency (Hz)'): uPlot.Axis {
 		labelSize: 18,
 		size: 30,
 		splits: (_u, _axis, min, max) => octaveTicks(min, max),
+		// uPlot's own filter for log axes keeps only decade-like labels; ours thins by stride instead.
+		filter: (_u, splits) => splits,
 		values: (u, splits) => {
 			const scale = u.scales.x;
 			const octaves = Math.log2((scale.max ?? 20000) / (scale.min ?? 20));

@@ -43,3 +43,17 @@ export function sessionAnalysedMail(p: { roomName: string; condition: string; an
 		].join('\n')
 	};
 }
+
+export function reportPublishedMail(p: { clientName: string; roomName: string; title: string; link: string }) {
+	return {
+		subject: `Your report is ready: ${p.roomName}`,
+		text: [
+			`Hello ${p.clientName},`,
+			'',
+			`The report "${p.title}" for ${p.roomName} is ready. It shows how the room measured before and after the treatment, in charts and in plain words, with your consultant's advice.`,
+			'',
+			'Read it (and download the PDF) here:',
+			p.link
+		].join('\n')
+	};
+}

@@ -1,0 +1,36 @@
+// What every chart of a room shows besides the measurement: its modes below the Schroeder
+// frequency, its problem bands, and its target.
+import { roomModes, schroederFrequency } from '../analysis/room';
+import { bs1116Target, type TargetBand } from '../analysis/targets';
+import type { ModeMarker } from '../charts/response-data';
+import type { ProblemBandView } from '../results/types';
+import type { FrequencyProblemBand } from '../components/charts/ResponseChart.svelte';
+
+export interface RoomDims {
+	lengthM: number;
+	widthM: number;
+	heightM: number;
+	volumeM3: number;
+	roomUse: string;
+}
+
+/** Modes up to the Schroeder frequency for the room's measured mid-band T (at most 120 marks). */
+export function modeMarks(room: RoomDims, t60S: number | null): { modes: ModeMarker[]; schroederHz: number | null } {
+	if (!t60S || !(t60S > 0)) return { modes: [], schroederHz: null };
+	const fs = schroederFrequency(t60S, room.volumeM3);
+	const modes = roomModes(room, fs)
+		.slice(0, 120)
+		.map((m) => ({ freqHz: m.freqHz, kind: m.kind, label: `(${m.n.join(',')}) ${m.freqHz.toFixed(1)} Hz ${m.kind}` }));
+	return { modes, schroederHz: fs };
+}
+
+export function problemBandMarks(bands: ProblemBandView[]): FrequencyProblemBand[] {
+	return bands.map((b) => ({ id: b.id, fLoHz: b.fLoHz, fHiHz: b.fHiHz, severity: b.severity, label: `${b.note}${b.status === 'addressed' ? ' (addressed)' : ''}` }));
+}
+
+const LISTENING_USES = new Set(['listening', 'control', 'home-theatre']);
+
+/** The target shown for a room: ITU-R BS.1116-3 for rooms used for critical listening. */
+export function roomTarget(room: RoomDims, centersHz: number[]): TargetBand[] {
+	return LISTENING_USES.has(room.roomUse) ? bs1116Target(room.volumeM3, centersHz) : [];
+}

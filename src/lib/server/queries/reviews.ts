@@ -1,0 +1,89 @@
+import type { Knex } from 'knex';
+import type { ProblemBandView } from '../../results/types';
+
+export interface ComparisonRow {
+	id: number;
+	roomId: number;
+	baselineSessionId: number;
+	treatedSessionId: number;
+	title: string;
+	advice: string | null;
+	shareQualityNotes: boolean;
+	publishedAt: Date | null;
+	createdAt: Date;
+}
+
+const comparisonColumns = {
+	id: 'id',
+	roomId: 'room_id',
+	baselineSessionId: 'baseline_session_id',
+	treatedSessionId: 'treated_session_id',
+	title: 'title',
+	advice: 'advice',
+	shareQualityNotes: 'share_quality_notes',
+	publishedAt: 'published_at',
+	createdAt: 'created_at'
+};
+
+const shapeComparison = (r: Record<string, unknown>): ComparisonRow => ({ ...(r as unknown as ComparisonRow), shareQualityNotes: Boolean(r.shareQualityNotes) });
+
+export async function listComparisons(k: Knex, roomId: number, onlyPublished = false): Promise<ComparisonRow[]> {
+	const q = k('comparisons').where({ room_id: roomId }).select(comparisonColumns).orderBy('created_at', 'desc');
+	if (onlyPublished) q.whereNotNull('published_at');
+	return (await q).map(shapeComparison);
+}
+
+export async function getComparison(k: Knex, id: number): Promise<ComparisonRow | undefined> {
+	const r = await k('comparisons').where({ id }).first(comparisonColumns);
+	return r ? shapeComparison(r) : undefined;
+}
+
+export async function createComparison(k: Knex, c: { roomId: number; baselineSessionId: number; treatedSessionId: number; title: string; createdBy: number }): Promise<number> {
+	const [id] = await k('comparisons').insert({
+		room_id: c.roomId,
+		baseline_session_id: c.baselineSessionId,
+		treated_session_id: c.treatedSessionId,
+		title: c.title,
+		created_by: c.createdBy
+	});
+	return id;
+}
+
+const bandColumns = {
+	id: 'id',
+	fLoHz: 'f_lo_hz',
+	fHiHz: 'f_hi_hz',
+	tLoMs: 't_lo_ms',
+	tHiMs: 't_hi_ms',
+	severity: 'severity',
+	note: 'note',
+	status: 'status'
+};
+
+/** A room's problem bands, shown on every chart of that room. */
+export async function listProblemBands(k: Knex, roomId: number): Promise<ProblemBandView[]> {
+	return k('problem_bands').where({ room_id: roomId }).orderBy('f_lo_hz').select(bandColumns);
+}
+
+export async function getProblemBand(k: Knex, id: number): Promise<(ProblemBandView & { roomId: number }) | undefined> {
+	return k('problem_bands').where({ id }).first({ ...bandColumns, roomId: 'room_id' });
+}
+
+export async function createProblemBand(
+	k: Knex,
+	roomId: number,
+	b: { fLoHz: number; fHiHz: number; tLoMs: number | null; tHiMs: number | null; severity: string; note: string; comparisonId: number | null; authorId: number }
+): Promise<number> {
+	const [id] = await k('problem_bands').insert({
+		room_id: roomId,
+		comparison_id: b.comparisonId,
+		f_lo_hz: b.fLoHz,
+		f_hi_hz: b.fHiHz,
+		t_lo_ms: b.tLoMs,
+		t_hi_ms: b.tHiMs,
+		severity: b.severity,
+		note: b.note,
+		author_id: b.authorId
+	});
+	return id;
+}
