@@ -12,7 +12,7 @@ export const OUTLIER_FRACTION = 0.2;
 const BROADBAND_PLACEHOLDER_HZ = 1;
 
 /**
- * Arithmetic means over positions, per band (ISO 3382-2:2008 clause 5.3: reverberation times are
+ * Arithmetic means over positions, per band (ISO 3382-2:2008, 5.3, from memory: reverberation times are
  * averaged arithmetically over the positions). The energy parameters (C50, C80, D50, Ts) are
  * averaged the same way, C50/C80 in dB — our stated choice, so one rule covers every metric.
  */

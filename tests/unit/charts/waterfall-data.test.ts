@@ -23,7 +23,7 @@ describe('waterfallTable', () => {
 	it('reads the octave frequencies every 50 ms', () => {
 		const w = syntheticWaterfall(Array.from({ length: 31 }, (_, i) => i * 10));
 		const table = waterfallTable(w);
-		expect(table.headers).toEqual(['Time (ms)', '31.5 Hz (dB)', '63 Hz (dB)', '125 Hz (dB)', '250 Hz (dB)', '500 Hz (dB)', '1000 Hz (dB)']);
+		expect(table.headers).toEqual(['Time (ms)', '31.5 Hz (dB)', '63 Hz (dB)', '125 Hz (dB)', '250 Hz (dB)', '500 Hz (dB)', '1 kHz (dB)']);
 		expect(table.rows.map((r) => r[0])).toEqual([0, 50, 100, 150, 200, 250, 300]);
 		const octaves = [31.5, 63, 125, 250, 500, 1000];
 		for (const row of table.rows) {

@@ -9,7 +9,14 @@ import { recordAudit } from '$lib/server/audit';
 import { transaction } from '$lib/server/transaction';
 import { roomSchema, sessionSchema } from '$lib/schemas/projects';
 import { roleAllows } from '$lib/roles';
+import { listComparisons, listProblemBands, getProblemBand } from '$lib/server/queries/reviews';
+import { addProblemBand, ReviewProblem, removeProblemBand, setProblemBandStatus, startComparison } from '$lib/server/reviews';
+import { comparisonSchema, problemBandSchema, problemBandStatusSchema } from '$lib/schemas/reviews';
+import { formFail } from '$lib/server/forms';
+import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
+
+const bandIdSchema = z.object({ bandId: z.coerce.number().int().positive() });
 
 export const load = (async ({ locals, params }) => {
 	const roomId = Number(params.roomId);
@@ -22,7 +29,9 @@ export const load = (async ({ locals, params }) => {
 		room,
 		project: { id: project!.id, name: project!.name },
 		sessions: await listSessions(k, roomId),
-		can: { edit: roleAllows(scope.role, 'project:edit') }
+		comparisons: await listComparisons(k, roomId, !roleAllows(scope.role, 'project:internal')),
+		problemBands: await listProblemBands(k, roomId),
+		can: { edit: roleAllows(scope.role, 'project:edit'), review: roleAllows(scope.role, 'review:write'), internal: roleAllows(scope.role, 'project:internal') }
 	};
 }) satisfies PageServerLoad;
 
@@ -50,5 +59,59 @@ export const actions = {
 			return id;
 		});
 		redirect(303, `/sessions/${id}`);
+	},
+
+	createComparison: async ({ locals, params, request }) => {
+		const roomId = Number(params.roomId);
+		const scope = await authorize(locals, 'review:write', { roomId });
+		const form = await request.formData();
+		const parsed = parseForm(comparisonSchema, form);
+		if (!parsed.ok) return parsed.failure;
+		try {
+			const id = await startComparison(db(), scope, roomId, parsed.data);
+			redirect(303, `/comparisons/${id}`);
+		} catch (e) {
+			if (e instanceof ReviewProblem) return formFail(e.status, form, e.message, e.field ? { [e.field]: e.message } : {});
+			throw e;
+		}
+	},
+
+	addProblemBand: async ({ locals, params, request }) => {
+		const roomId = Number(params.roomId);
+		const scope = await authorize(locals, 'review:write', { roomId });
+		const form = await request.formData();
+		const parsed = parseForm(problemBandSchema, form);
+		if (!parsed.ok) return parsed.failure;
+		try {
+			await addProblemBand(scope, roomId, parsed.data);
+		} catch (e) {
+			if (e instanceof ReviewProblem) return formFail(e.status, form, e.message, e.field ? { [e.field]: e.message } : {});
+			throw e;
+		}
+		return { bandAdded: true };
+	},
+
+	setBandStatus: async ({ locals, params, request }) => {
+		const scope = await authorize(locals, 'review:write', { roomId: Number(params.roomId) });
+		const form = await request.formData();
+		const ids = bandIdSchema.safeParse(Object.fromEntries(form));
+		if (!ids.success) return formFail(400, form, 'Which problem band?');
+		const band = await getProblemBand(db(), ids.data.bandId);
+		if (!band || band.roomId !== Number(params.roomId)) return formFail(404, form, 'Not found.');
+		const parsed = parseForm(problemBandStatusSchema, form);
+		if (!parsed.ok) return parsed.failure;
+		await setProblemBandStatus(scope, band.id, parsed.data.status);
+		return { bandUpdated: true };
+	},
+
+	deleteBand: async ({ locals, params, request }) => {
+		const scope = await authorize(locals, 'review:write', { roomId: Number(params.roomId) });
+		const form = await request.formData();
+		const ids = bandIdSchema.safeParse(Object.fromEntries(form));
+		if (!ids.success) return formFail(400, form, 'Which problem band?');
+		const band = await getProblemBand(db(), ids.data.bandId);
+		if (!band || band.roomId !== Number(params.roomId)) return formFail(404, form, 'Not found.');
+		await removeProblemBand(scope, band.id);
+		return { bandDeleted: true };
 	}
 } satisfies Actions;

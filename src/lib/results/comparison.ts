@@ -1,0 +1,69 @@
+// Two visits of a room compared: positions matched by label, the matched averages band by band,
+// and the reverberation verdicts against a target before and after.
+import { bandDifferences } from '../analysis/compare';
+import { bs1116Target, judgeAgainstTarget, sameBand, type TargetBand } from '../analysis/targets';
+import type { ComparisonResult, SourcedVerdict } from './extra-types';
+import { reverberationOf, type Side } from './reverberation';
+import { averagePositions } from './session';
+import { plainSummary } from './summary';
+import { AVERAGED_METRICS, type RoomFacts, type SessionSummary } from './types';
+
+/** Room uses for critical listening, where ITU-R BS.1116-3 gives the default target. */
+const LISTENING_USES: readonly string[] = ['listening', 'control', 'home-theatre'];
+
+const byLabel = (a: string, b: string) => a.localeCompare(b, 'en', { numeric: true });
+
+function labelsOf(summary: SessionSummary): Set<string> {
+	return new Set(summary.positions.map((p) => p.positionLabel));
+}
+
+export function defaultTarget(room: RoomFacts, centersHz: readonly number[]): TargetBand[] {
+	return LISTENING_USES.includes(room.roomUse) && centersHz.length > 0 ? bs1116Target(room.volumeM3, centersHz) : [];
+}
+
+export function compareSessions(
+	room: RoomFacts,
+	baseline: SessionSummary,
+	treated: SessionSummary,
+	options: { target?: TargetBand[] } = {}
+): ComparisonResult {
+	const baselineLabels = labelsOf(baseline);
+	const treatedLabels = labelsOf(treated);
+	const matchedPositions = [...baselineLabels].filter((label) => treatedLabels.has(label)).sort(byLabel);
+	const baselineOnly = [...baselineLabels].filter((label) => !treatedLabels.has(label)).sort(byLabel);
+	const treatedOnly = [...treatedLabels].filter((label) => !baselineLabels.has(label)).sort(byLabel);
+
+	const matched = new Set(matchedPositions);
+	const matchedAverage = {
+		baseline: averagePositions(baseline.positions.filter((p) => matched.has(p.positionLabel))),
+		treated: averagePositions(treated.positions.filter((p) => matched.has(p.positionLabel)))
+	};
+	const differences = bandDifferences(matchedAverage.baseline, matchedAverage.treated, AVERAGED_METRICS);
+	const target = options.target ?? defaultTarget(room, differences.map((d) => d.centerHz));
+
+	const judge = (side: Side): SourcedVerdict[] => {
+		const values = differences.map((band) => ({ centerHz: band.centerHz, ...reverberationOf(band, side) }));
+		// The same band lookup judgeAgainstTarget makes, to say which metric each verdict used.
+		const metricAt = (centerHz: number) => values.find((v) => sameBand(v.centerHz, centerHz))?.metric ?? null;
+		return judgeAgainstTarget(values, target).map((verdict) => ({
+			...verdict,
+			metric: verdict.measuredS === null ? null : metricAt(verdict.centerHz)
+		}));
+	};
+
+	const model: ComparisonResult = {
+		room,
+		baseline,
+		treated,
+		matchedPositions,
+		baselineOnly,
+		treatedOnly,
+		differences,
+		target,
+		verdicts: { before: judge('before'), after: judge('after') },
+		summary: [],
+		matchedAverage
+	};
+	model.summary = plainSummary(model);
+	return model;
+}

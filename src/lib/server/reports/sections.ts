@@ -1,0 +1,252 @@
+// The report's sections, in reading order, each drawn into the flow of the document.
+import { formatNumber } from '../../charts/format';
+import { bandName } from '../../charts/ticks';
+import type { ComparisonModel, ProblemBandView, SessionSummary } from '../../results/types';
+import { drawBandChart } from './band-chart';
+import { drawBullets, drawFactPanel, drawHeading, drawParagraphs } from './blocks';
+import {
+	capitalise,
+	formatDb,
+	formatFrequencyRange,
+	formatPublishedDate,
+	formatSeconds,
+	formatTargetRange,
+	formatTimeChange,
+	formatTimeRange,
+	MISSING,
+	splitParagraphs,
+	verdictWords
+} from './format';
+import type { ReportPen } from './pen';
+import { reportBandRows, smoothedResponse, usesT20Fallback, type ReportBandRow, type ReverberationValue } from './report-data';
+import { methodParagraphs, SAFETY_PARAGRAPHS } from './report-text';
+import { drawResponseChart } from './response-chart';
+import { drawTable } from './table';
+import { COLOURS, TYPE } from './theme';
+
+export interface ReportContent {
+	practiceName: string;
+	projectName: string;
+	clientName: string;
+	publishedAt: Date;
+	title: string;
+	comparison: ComparisonModel;
+	advice: string;
+	problemBands: ProblemBandView[];
+	plan: { title: string; lines: string[] } | null;
+	targetBasis: string;
+}
+
+const RESPONSE_CHART_HEIGHT = 215;
+const BAND_CHART_HEIGHT = 185;
+const CHART_GAP = 18;
+const LEGEND_LABEL_CHARS = 30;
+
+function shorten(text: string, maxChars: number): string {
+	return text.length <= maxChars ? text : `${text.slice(0, maxChars - 1).trimEnd()}…`;
+}
+
+function visitLabel(side: 'Before' | 'After', session: SessionSummary): string {
+	return shorten(`${side}: ${session.conditionLabel}`, LEGEND_LABEL_CHARS);
+}
+
+function visitFact(session: SessionSummary): string {
+	return `${session.conditionLabel}, measured ${session.measuredOn}`;
+}
+
+export function drawTitleBlock(pen: ReportPen, report: ReportContent): void {
+	const { room, baseline, treated, matchedPositions } = report.comparison;
+	pen.use('monoBold', TYPE.small, COLOURS.after).flow('RINGDOWN  ·  CLIENT REPORT', { characterSpacing: 1.2 });
+	pen.gap(8);
+	pen.use('proseBold', TYPE.title, COLOURS.ink).flow(report.title);
+	pen.gap(2);
+	pen.use('prose', TYPE.subtitle, COLOURS.inkSoft).flow(room.name);
+	pen.gap(12);
+	const dimensions = `${formatNumber(room.lengthM, 2)} × ${formatNumber(room.widthM, 2)} × ${formatNumber(room.heightM, 2)} m`;
+	drawFactPanel(pen, [
+		[
+			{ label: 'Project', value: report.projectName },
+			{ label: 'Client', value: report.clientName },
+			{ label: 'Prepared by', value: report.practiceName },
+			{ label: 'Published', value: formatPublishedDate(report.publishedAt) }
+		],
+		[
+			{ label: 'Room (L×W×H)', value: dimensions, face: 'mono' },
+			{ label: 'Volume', value: `${formatNumber(room.volumeM3, 1)} m³`, face: 'mono' },
+			{ label: 'Use', value: room.roomUse.length > 0 ? room.roomUse : MISSING },
+			{ label: 'Before', value: visitFact(baseline) },
+			{ label: 'After', value: visitFact(treated) },
+			{ label: 'Positions', value: `${matchedPositions.length} compared`, face: 'mono' }
+		]
+	]);
+}
+
+export function drawSummary(pen: ReportPen, summary: readonly string[]): void {
+	drawHeading(pen, 'In short', 30);
+	if (summary.length === 0) drawParagraphs(pen, ['No summary has been written for this comparison.'], COLOURS.inkSoft);
+	else drawBullets(pen, summary);
+}
+
+export function drawCharts(pen: ReportPen, report: ReportContent, rows: readonly ReportBandRow[]): void {
+	const { baseline, treated, target } = report.comparison;
+	const beforeLabel = visitLabel('Before', baseline);
+	const afterLabel = visitLabel('After', treated);
+	drawHeading(pen, 'Before and after', RESPONSE_CHART_HEIGHT);
+	const responseTop = pen.y;
+	drawResponseChart(
+		pen,
+		{ x: pen.left, y: responseTop, width: pen.width, height: RESPONSE_CHART_HEIGHT },
+		{
+			title: 'Frequency response, average of the positions (1/6-octave smoothing)',
+			before: smoothedResponse(baseline),
+			after: smoothedResponse(treated),
+			beforeLabel,
+			afterLabel,
+			problemBands: report.problemBands
+		}
+	);
+	pen.y = responseTop + RESPONSE_CHART_HEIGHT + CHART_GAP;
+
+	pen.ensureSpace(BAND_CHART_HEIGHT);
+	const bandTop = pen.y;
+	const halfWidth = (pen.width - CHART_GAP) / 2;
+	const pointsOf = (value: (row: ReportBandRow) => number | null) => rows.map((row) => ({ centerHz: row.centerHz, value: value(row) }));
+	drawBandChart(
+		pen,
+		{ x: pen.left, y: bandTop, width: halfWidth, height: BAND_CHART_HEIGHT },
+		{
+			title: 'Reverberation time per octave band',
+			yTitle: 'T30 (s)',
+			before: pointsOf((row) => row.before.valueS),
+			after: pointsOf((row) => row.after.valueS),
+			beforeLabel: 'Before',
+			afterLabel: 'After',
+			target,
+			decimals: 1,
+			axisFromZero: true
+		}
+	);
+	drawBandChart(
+		pen,
+		{ x: pen.left + halfWidth + CHART_GAP, y: bandTop, width: halfWidth, height: BAND_CHART_HEIGHT },
+		{
+			title: 'Clarity C80 per octave band',
+			yTitle: 'C80 (dB)',
+			before: pointsOf((row) => row.c80BeforeDb),
+			after: pointsOf((row) => row.c80AfterDb),
+			beforeLabel: 'Before',
+			afterLabel: 'After',
+			target: [],
+			decimals: 0,
+			axisFromZero: false
+		}
+	);
+	pen.y = bandTop + BAND_CHART_HEIGHT;
+}
+
+function reverberationCell(value: ReverberationValue): string {
+	const text = formatSeconds(value.valueS);
+	return value.metric === 'T20' ? `${text}*` : text;
+}
+
+export function drawBandTable(pen: ReportPen, rows: readonly ReportBandRow[], hasTarget: boolean): void {
+	drawHeading(pen, 'Band by band', 50);
+	if (rows.length === 0) {
+		drawParagraphs(pen, ['No band values were measured for these visits.'], COLOURS.inkSoft);
+		return;
+	}
+	drawTable(
+		pen,
+		[
+			{ header: 'Band', weight: 0.85, face: 'mono' },
+			{ header: 'T30 before', weight: 1, align: 'right', face: 'mono' },
+			{ header: 'T30 after', weight: 1, align: 'right', face: 'mono' },
+			{ header: 'Change', weight: 1.55, align: 'right', face: 'mono' },
+			{ header: 'Target', weight: 1.15, align: 'right', face: 'mono' },
+			{ header: 'After vs target', weight: 1.2 },
+			{ header: 'C80 before', weight: 1, align: 'right', face: 'mono' },
+			{ header: 'C80 after', weight: 1, align: 'right', face: 'mono' }
+		],
+		rows.map((row) => [
+			bandName(row.centerHz),
+			reverberationCell(row.before),
+			reverberationCell(row.after),
+			formatTimeChange(row.differenceS, row.relativeChange),
+			row.target ? formatTargetRange(row.target.lowerS, row.target.upperS) : MISSING,
+			row.target ? verdictWords(row.verdictAfter) : MISSING,
+			formatDb(row.c80BeforeDb),
+			formatDb(row.c80AfterDb)
+		])
+	);
+	const notes: string[] = [];
+	if (usesT20Fallback(rows)) notes.push('* T20: the dynamic range of this band did not allow T30.');
+	if (!hasTarget) notes.push('No target reverberation time was set for this room.');
+	notes.push('Change is after minus before; — marks a value that could not be measured.');
+	pen.gap(4);
+	for (const note of notes) pen.use('prose', TYPE.small, COLOURS.inkSoft).flow(note);
+}
+
+export function drawProblemBands(pen: ReportPen, problemBands: readonly ProblemBandView[]): void {
+	drawHeading(pen, 'Problem bands', 40);
+	if (problemBands.length === 0) {
+		drawParagraphs(pen, ['No problem bands were marked for this room.'], COLOURS.inkSoft);
+		return;
+	}
+	drawTable(
+		pen,
+		[
+			{ header: '#', weight: 0.35, face: 'mono' },
+			{ header: 'Frequency', weight: 1.3, face: 'mono' },
+			{ header: 'Time', weight: 1.05, face: 'mono' },
+			{ header: 'Severity', weight: 0.85 },
+			{ header: 'Note', weight: 3.4 },
+			{ header: 'Status', weight: 0.85 }
+		],
+		problemBands.map((band, index) => [
+			String(index + 1),
+			formatFrequencyRange(band.fLoHz, band.fHiHz),
+			formatTimeRange(band.tLoMs, band.tHiMs),
+			capitalise(band.severity),
+			band.note.trim().length > 0 ? band.note : MISSING,
+			capitalise(band.status)
+		])
+	);
+}
+
+export function drawAdvice(pen: ReportPen, advice: string, plan: ReportContent['plan']): void {
+	drawHeading(pen, 'Advice');
+	const paragraphs = splitParagraphs(advice);
+	if (paragraphs.length === 0) drawParagraphs(pen, ['No advice has been written yet.'], COLOURS.inkSoft);
+	else drawParagraphs(pen, paragraphs);
+	if (plan) {
+		pen.gap(6);
+		pen.ensureSpace(40);
+		pen.use('proseBold', TYPE.body + 1, COLOURS.ink).flow(plan.title);
+		pen.gap(4);
+		if (plan.lines.length === 0) drawParagraphs(pen, ['No steps listed.'], COLOURS.inkSoft);
+		else drawBullets(pen, plan.lines, COLOURS.inkSoft);
+	}
+}
+
+export function drawMethod(pen: ReportPen, report: ReportContent, rows: readonly ReportBandRow[]): void {
+	drawHeading(pen, 'Method');
+	drawParagraphs(pen, methodParagraphs(report.comparison, rows, report.targetBasis));
+}
+
+export function drawSafety(pen: ReportPen): void {
+	drawHeading(pen, 'Safety');
+	drawParagraphs(pen, SAFETY_PARAGRAPHS);
+}
+
+/** All sections in order. */
+export function drawReport(pen: ReportPen, report: ReportContent): void {
+	const rows = reportBandRows(report.comparison);
+	drawTitleBlock(pen, report);
+	drawSummary(pen, report.comparison.summary);
+	drawCharts(pen, report, rows);
+	drawBandTable(pen, rows, report.comparison.target.length > 0);
+	drawProblemBands(pen, report.problemBands);
+	drawAdvice(pen, report.advice, report.plan);
+	drawMethod(pen, report, rows);
+	drawSafety(pen);
+}

@@ -1,0 +1,51 @@
+// Everything a comparison or report page shows, loaded once for both.
+import { error } from '@sveltejs/kit';
+import type { Knex } from 'knex';
+import { getComparison, listProblemBands } from '../queries/reviews';
+import { getProject } from '../queries/projects';
+import { getRoom } from '../queries/rooms';
+import { analysisSummaries } from '../queries/captures';
+import { loadComparisonModel } from './load';
+import type { Scope } from '../auth/access';
+import { roleAllows } from '../../roles';
+
+export async function loadComparisonPage(k: Knex, scope: Scope, comparisonId: number) {
+	const comparison = (await getComparison(k, comparisonId))!;
+	const internal = roleAllows(scope.role, 'project:internal');
+	// A client sees a comparison only once it is published, and never learns that a draft exists.
+	if (!internal && !comparison.publishedAt) error(404, 'Not found.');
+	const room = (await getRoom(k, comparison.roomId))!;
+	const project = (await getProject(k, room.projectId))!;
+	const organization = await k('organizations').where({ id: project.organizationId }).first('name');
+	const model = await loadComparisonModel(k, comparison);
+	const showQuality = internal || comparison.shareQualityNotes;
+	let qualityNotes: { positionLabel: string; condition: string; messages: string[] }[] = [];
+	if (showQuality) {
+		const ids = [...model.baseline.positions, ...model.treated.positions].map((p) => p.captureId);
+		const summaries = await analysisSummaries(k, ids);
+		qualityNotes = [
+			...model.baseline.positions.map((p) => ({ p, condition: model.baseline.conditionLabel })),
+			...model.treated.positions.map((p) => ({ p, condition: model.treated.conditionLabel }))
+		]
+			.map(({ p, condition }) => ({
+				positionLabel: p.positionLabel,
+				condition,
+				messages: ((summaries.get(p.captureId)?.warnings ?? []) as { message: string }[]).map((w) => w.message)
+			}))
+			.filter((q) => q.messages.length > 0);
+	}
+	return {
+		comparison: { ...comparison, advice: comparison.advice ?? '' },
+		room: { id: room.id, name: room.name, lengthM: room.lengthM, widthM: room.widthM, heightM: room.heightM, volumeM3: room.volumeM3, roomUse: room.roomUse },
+		project: { id: project.id, name: project.name, clientName: project.clientName },
+		practiceName: organization.name as string,
+		model,
+		problemBands: await listProblemBands(k, room.id),
+		qualityNotes,
+		can: {
+			review: roleAllows(scope.role, 'review:write'),
+			publish: roleAllows(scope.role, 'report:publish'),
+			internal
+		}
+	};
+}
