@@ -30,5 +30,7 @@ export async function ownedIds(k: Knex, t: ProjectTree): Promise<Record<string, 
 		level_dbfs: -6,
 		object_key: `sweeps/${randomUUID()}.wav`
 	});
-	return { projectId: t.projectId, roomId: t.roomId, sessionId: t.sessionId, positionId: t.positionId, captureId, sweepId };
+	const [laterSessionId] = await k('sessions').insert({ room_id: t.roomId, condition_label: 'treated', measured_on: '2026-11-20' });
+	const [comparisonId] = await k('comparisons').insert({ room_id: t.roomId, baseline_session_id: t.sessionId, treated_session_id: laterSessionId, title: 'owned comparison', published_at: new Date() });
+	return { projectId: t.projectId, roomId: t.roomId, sessionId: t.sessionId, positionId: t.positionId, captureId, sweepId, comparisonId };
 }

@@ -87,8 +87,13 @@ function targetCountSentence(model: ComparisonModel): string | null {
 	const targets = model.target.map((t) => t.targetS);
 	const single = targets.every((t) => Math.abs(t - targets[0]) < 0.005) ? ` (${formatSeconds(targets[0])} s)` : '';
 	const total = model.target.length;
-	if (before === after) return `${after} of ${total} frequency bands are inside the target for this room${single}, as before.`;
-	return `${after} of ${total} frequency bands are now inside the target for this room${single}, against ${before} before.`;
+	const bands = total === 1 ? 'frequency band' : 'frequency bands';
+	if (before === after) {
+		if (after === 0 && total === 1) return `The frequency band with a target for this room${single} is outside it, before and after.`;
+		if (after === 0) return `None of the ${total} ${bands} is inside the target for this room${single}, before or after.`;
+		return `${after} of ${total} ${bands} ${after === 1 ? 'is' : 'are'} inside the target for this room${single}, as before.`;
+	}
+	return `${after} of ${total} ${bands} ${after === 1 ? 'is' : 'are'} now inside the target for this room${single}, against ${before} before.`;
 }
 
 function claritySentence(model: ComparisonModel): string | null {

@@ -43,6 +43,11 @@ export interface Fact {
 	face?: Extract<FontRole, 'prose' | 'mono'>;
 }
 
+/** The mono face looks larger than the prose face at one size; it is set a little smaller. */
+function valueSize(fact: Fact): number {
+	return fact.face === 'mono' ? TYPE.body - 1 : TYPE.body;
+}
+
 /** Label/value pairs in columns on a light panel. */
 export function drawFactPanel(pen: ReportPen, columns: readonly (readonly Fact[])[]): void {
 	const pad = 10;
@@ -52,7 +57,7 @@ export function drawFactPanel(pen: ReportPen, columns: readonly (readonly Fact[]
 	const valueWidth = columnWidth - labelWidth;
 	const lineHeights = columns.map((facts) =>
 		facts.map((fact) => {
-			pen.use(fact.face ?? 'prose', TYPE.body, COLOURS.ink);
+			pen.use(fact.face ?? 'prose', valueSize(fact), COLOURS.ink);
 			return pen.heightOf(fact.value, valueWidth) + 4;
 		})
 	);
@@ -64,8 +69,11 @@ export function drawFactPanel(pen: ReportPen, columns: readonly (readonly Fact[]
 		const x = pen.left + pad + c * (columnWidth + gutter);
 		let y = top + pad;
 		facts.forEach((fact, i) => {
-			pen.use('prose', TYPE.small, COLOURS.inkSoft).text(fact.label, x, y + 1, { width: labelWidth - 4, lineBreak: false });
-			pen.use(fact.face ?? 'prose', TYPE.body, COLOURS.ink).text(fact.value, x + labelWidth, y, { width: valueWidth });
+			const valueAscent = pen.use(fact.face ?? 'prose', valueSize(fact), COLOURS.ink).ascent();
+			pen.text(fact.value, x + labelWidth, y, { width: valueWidth });
+			// The label sits on the value's first baseline.
+			const labelAscent = pen.use('prose', TYPE.small, COLOURS.inkSoft).ascent();
+			pen.text(fact.label, x, y + valueAscent - labelAscent, { width: labelWidth - 4, lineBreak: false });
 			y += lineHeights[c][i];
 		});
 	});

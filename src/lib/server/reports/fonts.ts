@@ -2,6 +2,7 @@
 // pdfkit reads WOFF through fontkit; should the files be missing, Courier stands in for the mono.
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
+import { woffToSfnt } from './woff';
 
 export type FontRole = 'prose' | 'proseBold' | 'mono' | 'monoBold';
 
@@ -26,14 +27,17 @@ const STANDARD_FACES: ReportFonts = {
 	monoBold: { name: 'Courier-Bold', unicode: false }
 };
 
-/** The font files, read once per process; null when they cannot be read. */
+/** The font files, read and unpacked once per process; null when they cannot be read. */
 let monoFiles: { regular: Buffer; bold: Buffer } | null | undefined;
 
 function readMonoFiles(): { regular: Buffer; bold: Buffer } | null {
 	if (monoFiles !== undefined) return monoFiles;
 	try {
 		const require = createRequire(import.meta.url);
-		monoFiles = { regular: readFileSync(require.resolve(MONO_FILES.regular)), bold: readFileSync(require.resolve(MONO_FILES.bold)) };
+		monoFiles = {
+			regular: woffToSfnt(readFileSync(require.resolve(MONO_FILES.regular))),
+			bold: woffToSfnt(readFileSync(require.resolve(MONO_FILES.bold)))
+		};
 	} catch {
 		monoFiles = null;
 	}

@@ -5,27 +5,15 @@ import type { BandVerdict } from '../../analysis/targets';
 
 export { MISSING };
 
-export function formatSeconds(value: number | null): string {
-	return value === null ? MISSING : `${formatNumber(value, 2)} s`;
+/** Fixed decimals with an explicit "+" for a rise, "—" for a missing value: "+0.12", "−0.32", "0.00". */
+export function formatSigned(value: number | null, decimals: number): string {
+	const text = formatNumber(value, decimals);
+	return value !== null && Number.isFinite(value) && Number(value.toFixed(decimals)) > 0 ? `+${text}` : text;
 }
 
-export function formatDb(value: number | null): string {
-	return value === null ? MISSING : `${formatNumber(value, 1)} dB`;
-}
-
-/** Signed change in seconds with the relative change: "−0.42 s (−38 %)". */
-export function formatTimeChange(difference: number | null, relativeChange: number | null): string {
-	if (difference === null) return MISSING;
-	const sign = difference > 0.005 ? '+' : '';
-	const seconds = `${sign}${formatNumber(difference, 2)} s`;
-	if (relativeChange === null) return seconds;
-	const percentSign = relativeChange > 0.005 ? '+' : '';
-	return `${seconds} (${percentSign}${formatNumber(relativeChange * 100, 0)} %)`;
-}
-
-/** Target tolerance as "0.20–0.25 s". */
+/** Target tolerance as "0.20–0.25". */
 export function formatTargetRange(lowerS: number, upperS: number): string {
-	return `${formatNumber(lowerS, 2)}–${formatNumber(upperS, 2)} s`;
+	return `${formatNumber(lowerS, 2)}–${formatNumber(upperS, 2)}`;
 }
 
 /** "42–48 Hz", "2–4 kHz", "800 Hz–1.2 kHz". */

@@ -6,6 +6,7 @@ import { CONTENT_WIDTH, PAGE } from './theme';
 
 export class ReportPen {
 	private role: FontRole = 'prose';
+	private size = 12;
 
 	constructor(
 		readonly doc: PDFKit.PDFDocument,
@@ -35,6 +36,7 @@ export class ReportPen {
 
 	use(role: FontRole, size: number, colour: string): this {
 		this.role = role;
+		this.size = size;
 		this.doc.font(this.fonts[role].name).fontSize(size).fillColor(colour);
 		return this;
 	}
@@ -54,6 +56,12 @@ export class ReportPen {
 		const { x = this.left, ...rest } = options;
 		this.doc.text(this.safe(text), x, this.doc.y, { width: this.width - (x - this.left), ...rest });
 		return this;
+	}
+
+	/** Top of a line to its baseline in the current face, so mixed faces can share a baseline. */
+	ascent(): number {
+		const font = (this.doc as unknown as { _font: { ascender: number } })._font;
+		return (font.ascender / 1000) * this.size;
 	}
 
 	widthOf(text: string): number {

@@ -6,12 +6,10 @@ import { drawBandChart } from './band-chart';
 import { drawBullets, drawFactPanel, drawHeading, drawParagraphs } from './blocks';
 import {
 	capitalise,
-	formatDb,
 	formatFrequencyRange,
 	formatPublishedDate,
-	formatSeconds,
+	formatSigned,
 	formatTargetRange,
-	formatTimeChange,
 	formatTimeRange,
 	MISSING,
 	splitParagraphs,
@@ -21,7 +19,7 @@ import type { ReportPen } from './pen';
 import { reportBandRows, smoothedResponse, usesT20Fallback, type ReportBandRow, type ReverberationValue } from './report-data';
 import { methodParagraphs, SAFETY_PARAGRAPHS } from './report-text';
 import { drawResponseChart } from './response-chart';
-import { drawTable } from './table';
+import { drawTable, type TableColumn } from './table';
 import { COLOURS, TYPE } from './theme';
 
 export interface ReportContent {
@@ -37,17 +35,18 @@ export interface ReportContent {
 	targetBasis: string;
 }
 
-const RESPONSE_CHART_HEIGHT = 215;
-const BAND_CHART_HEIGHT = 185;
-const CHART_GAP = 18;
-const LEGEND_LABEL_CHARS = 30;
+const RESPONSE_CHART_HEIGHT = 200;
+const BAND_CHART_HEIGHT = 178;
+const CHART_GAP = 16;
+const LEGEND_LABEL_CHARS = 44;
 
 function shorten(text: string, maxChars: number): string {
 	return text.length <= maxChars ? text : `${text.slice(0, maxChars - 1).trimEnd()}…`;
 }
 
-function visitLabel(side: 'Before' | 'After', session: SessionSummary): string {
-	return shorten(`${side}: ${session.conditionLabel}`, LEGEND_LABEL_CHARS);
+function visitLabel(side: 'Before' | 'After', session: SessionSummary, drawn: boolean): string {
+	const label = shorten(`${side}: ${session.conditionLabel}`, LEGEND_LABEL_CHARS);
+	return drawn ? label : `${label} (not measured)`;
 }
 
 function visitFact(session: SessionSummary): string {
@@ -76,7 +75,7 @@ export function drawTitleBlock(pen: ReportPen, report: ReportContent): void {
 			{ label: 'Use', value: room.roomUse.length > 0 ? room.roomUse : MISSING },
 			{ label: 'Before', value: visitFact(baseline) },
 			{ label: 'After', value: visitFact(treated) },
-			{ label: 'Positions', value: `${matchedPositions.length} compared`, face: 'mono' }
+			{ label: 'Positions', value: `${matchedPositions.length} compared` }
 		]
 	]);
 }
@@ -89,8 +88,8 @@ export function drawSummary(pen: ReportPen, summary: readonly string[]): void {
 
 export function drawCharts(pen: ReportPen, report: ReportContent, rows: readonly ReportBandRow[]): void {
 	const { baseline, treated, target } = report.comparison;
-	const beforeLabel = visitLabel('Before', baseline);
-	const afterLabel = visitLabel('After', treated);
+	const beforeResponse = smoothedResponse(baseline);
+	const afterResponse = smoothedResponse(treated);
 	drawHeading(pen, 'Before and after', RESPONSE_CHART_HEIGHT);
 	const responseTop = pen.y;
 	drawResponseChart(
@@ -98,10 +97,10 @@ export function drawCharts(pen: ReportPen, report: ReportContent, rows: readonly
 		{ x: pen.left, y: responseTop, width: pen.width, height: RESPONSE_CHART_HEIGHT },
 		{
 			title: 'Frequency response, average of the positions (1/6-octave smoothing)',
-			before: smoothedResponse(baseline),
-			after: smoothedResponse(treated),
-			beforeLabel,
-			afterLabel,
+			before: beforeResponse,
+			after: afterResponse,
+			beforeLabel: visitLabel('Before', baseline, beforeResponse !== null),
+			afterLabel: visitLabel('After', treated, afterResponse !== null),
 			problemBands: report.problemBands
 		}
 	);
@@ -116,7 +115,7 @@ export function drawCharts(pen: ReportPen, report: ReportContent, rows: readonly
 		{ x: pen.left, y: bandTop, width: halfWidth, height: BAND_CHART_HEIGHT },
 		{
 			title: 'Reverberation time per octave band',
-			yTitle: 'T30 (s)',
+			yTitle: usesT20Fallback(rows) ? 'T30, T20* (s)' : 'T30 (s)',
 			before: pointsOf((row) => row.before.valueS),
 			after: pointsOf((row) => row.after.valueS),
 			beforeLabel: 'Before',
@@ -145,8 +144,35 @@ export function drawCharts(pen: ReportPen, report: ReportContent, rows: readonly
 }
 
 function reverberationCell(value: ReverberationValue): string {
-	const text = formatSeconds(value.valueS);
+	const text = formatNumber(value.valueS, 2);
 	return value.metric === 'T20' ? `${text}*` : text;
+}
+
+const BAND_COLUMNS: Record<string, TableColumn> = {
+	band: { header: 'Band', weight: 0.8, face: 'mono' },
+	before: { header: 'T30 before (s)', weight: 1, align: 'right', face: 'mono' },
+	after: { header: 'T30 after (s)', weight: 1, align: 'right', face: 'mono' },
+	change: { header: 'Change (s)', weight: 0.9, align: 'right', face: 'mono' },
+	changePct: { header: 'Change (%)', weight: 0.9, align: 'right', face: 'mono' },
+	target: { header: 'Target (s)', weight: 1.1, align: 'right', face: 'mono' },
+	verdict: { header: 'After vs target', weight: 1.25 },
+	c80Before: { header: 'C80 before (dB)', weight: 1, align: 'right', face: 'mono' },
+	c80After: { header: 'C80 after (dB)', weight: 1, align: 'right', face: 'mono' }
+};
+
+/** The band table's cells, keyed like BAND_COLUMNS. */
+function bandCells(row: ReportBandRow): Record<keyof typeof BAND_COLUMNS, string> {
+	return {
+		band: bandName(row.centerHz),
+		before: reverberationCell(row.before),
+		after: reverberationCell(row.after),
+		change: formatSigned(row.differenceS, 2),
+		changePct: formatSigned(row.relativeChange === null ? null : row.relativeChange * 100, 0),
+		target: row.target ? formatTargetRange(row.target.lowerS, row.target.upperS) : MISSING,
+		verdict: row.target ? verdictWords(row.verdictAfter) : MISSING,
+		c80Before: formatNumber(row.c80BeforeDb, 1),
+		c80After: formatNumber(row.c80AfterDb, 1)
+	};
 }
 
 export function drawBandTable(pen: ReportPen, rows: readonly ReportBandRow[], hasTarget: boolean): void {
@@ -155,33 +181,20 @@ export function drawBandTable(pen: ReportPen, rows: readonly ReportBandRow[], ha
 		drawParagraphs(pen, ['No band values were measured for these visits.'], COLOURS.inkSoft);
 		return;
 	}
+	// Without a target its two columns would only hold dashes: they are left out.
+	const keys = Object.keys(BAND_COLUMNS).filter((key) => hasTarget || (key !== 'target' && key !== 'verdict'));
 	drawTable(
 		pen,
-		[
-			{ header: 'Band', weight: 0.85, face: 'mono' },
-			{ header: 'T30 before', weight: 1, align: 'right', face: 'mono' },
-			{ header: 'T30 after', weight: 1, align: 'right', face: 'mono' },
-			{ header: 'Change', weight: 1.55, align: 'right', face: 'mono' },
-			{ header: 'Target', weight: 1.15, align: 'right', face: 'mono' },
-			{ header: 'After vs target', weight: 1.2 },
-			{ header: 'C80 before', weight: 1, align: 'right', face: 'mono' },
-			{ header: 'C80 after', weight: 1, align: 'right', face: 'mono' }
-		],
-		rows.map((row) => [
-			bandName(row.centerHz),
-			reverberationCell(row.before),
-			reverberationCell(row.after),
-			formatTimeChange(row.differenceS, row.relativeChange),
-			row.target ? formatTargetRange(row.target.lowerS, row.target.upperS) : MISSING,
-			row.target ? verdictWords(row.verdictAfter) : MISSING,
-			formatDb(row.c80BeforeDb),
-			formatDb(row.c80AfterDb)
-		])
+		keys.map((key) => BAND_COLUMNS[key]),
+		rows.map((row) => {
+			const cells = bandCells(row);
+			return keys.map((key) => cells[key]);
+		})
 	);
 	const notes: string[] = [];
 	if (usesT20Fallback(rows)) notes.push('* T20: the dynamic range of this band did not allow T30.');
 	if (!hasTarget) notes.push('No target reverberation time was set for this room.');
-	notes.push('Change is after minus before; — marks a value that could not be measured.');
+	notes.push('Change is after minus before, in seconds and as a share of the time before. — marks a value that could not be measured.');
 	pen.gap(4);
 	for (const note of notes) pen.use('prose', TYPE.small, COLOURS.inkSoft).flow(note);
 }

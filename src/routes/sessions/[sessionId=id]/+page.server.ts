@@ -13,6 +13,8 @@ import { positionSchema } from '$lib/schemas/projects';
 import { roleAllows } from '$lib/roles';
 import { sessionCaptureViews } from '$lib/server/captures/views';
 import { listSweeps } from '$lib/server/sweeps';
+import { loadSessionSummary } from '$lib/server/results/load';
+import { listProblemBands } from '$lib/server/queries/reviews';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load = (async ({ locals, params }) => {
@@ -27,6 +29,8 @@ export const load = (async ({ locals, params }) => {
 	const upload = roleAllows(scope.role, 'capture:write');
 	return {
 		captures: internal ? await sessionCaptureViews(k, sessionId) : [],
+		summary: internal ? await loadSessionSummary(k, sessionId) : null,
+		problemBands: await listProblemBands(k, room.id),
 		sweeps: upload ? (await listSweeps(k, scope.organizationId)).map((s) => ({ id: s.id, name: s.name })) : [],
 		session,
 		room: { id: room.id, name: room.name, lengthM: room.lengthM, widthM: room.widthM, heightM: room.heightM },

@@ -1,0 +1,131 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { launch, newPage, seen, signIn } from './browser';
+import { firstLink, waitForMail } from '../helpers/mail';
+
+// The whole loop on the demo room, each role in turn: the acoustician's captures are analysed
+// (seeded), the consultant compares the visits, marks a problem band by dragging on the chart
+// and publishes the report, and the client reads it, downloads the PDF and gets the e-mail.
+let browser: Browser;
+beforeAll(async () => {
+	browser = await launch();
+});
+afterAll(async () => browser?.close());
+
+const ROOM = 'Attic listening room';
+const title = `Attic room before and after ${Date.now()}`;
+let reportUrl = '';
+
+async function openRoom(page: Page) {
+	await page.getByRole('link', { name: 'Lindqvist listening room' }).click();
+	await page.getByRole('link', { name: ROOM }).click();
+	await page.waitForURL(/\/rooms\/\d+$/);
+}
+
+describe('from captures to a published report', () => {
+	it('acoustician: the demo captures are analysed', async () => {
+		const page = await newPage(browser);
+		await signIn(page, 'acoustician@fenwick-hale.test');
+		await openRoom(page);
+		await page.getByRole('link', { name: '2026-10-06' }).click();
+		await page.waitForURL(/\/sessions\/\d+$/);
+		await page.waitForFunction(() => document.querySelectorAll('[data-testid="capture-row"][data-status="analysed"]').length === 3, null, { timeout: 60_000 });
+		expect(await seen(page.getByRole('heading', { name: 'Results of this visit' }))).toBe(true);
+		expect(await seen(page.getByRole('cell', { name: 'Average' }))).toBe(true);
+	});
+
+	it('consultant: compares the visits, marks a problem band by dragging, writes advice and publishes', async () => {
+		const page = await newPage(browser);
+		await signIn(page, 'consultant@fenwick-hale.test');
+		await openRoom(page);
+		const compare = page.getByRole('form', { name: 'Compare two visits' });
+		await compare.getByLabel('Title').fill(title);
+		await compare.getByLabel('Before', { exact: true }).selectOption({ label: 'untreated — 2026-10-06' });
+		await compare.getByLabel('After', { exact: true }).selectOption({ label: 'after treatment — 2026-11-17' });
+		await compare.getByRole('button', { name: 'Compare visits' }).click();
+		await page.waitForURL(/\/comparisons\/\d+$/);
+		const summary = page.getByTestId('summary');
+		expect((await summary.innerText()).length).toBeGreaterThan(40);
+
+		// Drag across the frequency axis of the response chart.
+		const over = page.locator('.u-over').first();
+		await over.waitFor();
+		const box = (await over.boundingBox())!;
+		await page.mouse.move(box.x + box.width * 0.18, box.y + box.height * 0.5);
+		await page.mouse.down();
+		await page.mouse.move(box.x + box.width * 0.26, box.y + box.height * 0.5, { steps: 8 });
+		await page.mouse.up();
+		await page.getByText('Selected on the chart:').waitFor();
+		const bandForm = page.getByRole('form', { name: 'Mark a problem band' });
+		const lo = Number(await bandForm.getByLabel('From', { exact: true }).inputValue());
+		const hi = Number(await bandForm.getByLabel('To', { exact: true }).inputValue());
+		expect(lo).toBeGreaterThan(20);
+		expect(hi).toBeGreaterThan(lo);
+		await bandForm.getByLabel('Severity').selectOption('severe');
+		await bandForm.getByLabel('Note', { exact: true }).fill('Modal ringing in the low end');
+		await bandForm.getByRole('button', { name: 'Mark problem band' }).click();
+		await page.getByText('Problem band marked.').waitFor();
+		expect(await seen(page.getByTestId('problem-band').filter({ hasText: 'Modal ringing in the low end' }))).toBe(true);
+
+		await page.getByLabel(/What was found/).fill('The corner traps took the boom out of the low end. Keep the rear diffuser clear of furniture.');
+		await page.getByRole('button', { name: 'Save advice' }).click();
+		await page.getByText('Saved.').waitFor();
+
+		await page.getByRole('button', { name: 'Publish to the client' }).click();
+		await page.waitForURL(/\/reports\/\d+\?published=1$/);
+		reportUrl = new URL(page.url()).pathname;
+	});
+
+	it('client: sees the report with the band, downloads the PDF, and has the e-mail', async () => {
+		const mail = await waitForMail('client@fenwick-hale.test', /Your report is ready: Attic listening room/);
+		expect(firstLink(mail.text)).toContain(reportUrl);
+
+		const page = await newPage(browser);
+		await signIn(page, 'client@fenwick-hale.test');
+		await openRoom(page);
+		await page.getByRole('link', { name: title }).click();
+		await page.waitForURL(/\/reports\/\d+$/);
+		expect(await seen(page.getByText('Modal ringing in the low end'))).toBe(true);
+		expect(await seen(page.getByText('The corner traps took the boom out'))).toBe(true);
+		expect(await seen(page.getByRole('heading', { name: 'How this was measured' }))).toBe(true);
+		// No internal controls or quality flags for the client.
+		expect(await page.getByRole('button', { name: 'Publish to the client' }).count()).toBe(0);
+		expect(await page.getByText('Measurement quality notes').count()).toBe(0);
+
+		const [dl] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download PDF' }).click()]);
+		const file = join(mkdtempSync(join(tmpdir(), 'report-')), 'report.pdf');
+		await dl.saveAs(file);
+		const head = spawnSync('head', ['-c', '5', file], { encoding: 'utf8' }).stdout;
+		expect(head).toBe('%PDF-');
+		const text = spawnSync('/usr/bin/pdftotext', [file, '-'], { encoding: 'utf8' });
+		expect(text.status, 'pdftotext (poppler-utils) must be installed').toBe(0);
+		expect(text.stdout).toContain(ROOM);
+
+		// Internal pages stay closed to the client.
+		const internal = await page.goto(reportUrl.replace('/reports/', '/comparisons/'));
+		expect([403, 404]).toContain(internal?.status());
+	});
+
+	it('a draft stays invisible to the client', async () => {
+		const staff = await newPage(browser);
+		await signIn(staff, 'consultant@fenwick-hale.test');
+		await openRoom(staff);
+		const compare = staff.getByRole('form', { name: 'Compare two visits' });
+		await compare.getByLabel('Title').fill(`Draft ${Date.now()}`);
+		await compare.getByLabel('Before', { exact: true }).selectOption({ label: 'untreated — 2026-10-06' });
+		await compare.getByLabel('After', { exact: true }).selectOption({ label: 'after treatment — 2026-11-17' });
+		await compare.getByRole('button', { name: 'Compare visits' }).click();
+		await staff.waitForURL(/\/comparisons\/\d+$/);
+		const draftId = new URL(staff.url()).pathname.split('/').pop();
+
+		const client = await newPage(browser);
+		await signIn(client, 'client@fenwick-hale.test');
+		expect((await client.goto(`/reports/${draftId}`))?.status()).toBe(404);
+		const pdf = await client.request.get(`/api/comparisons/${draftId}/report.pdf`);
+		expect(pdf.status()).toBe(404);
+	});
+});
