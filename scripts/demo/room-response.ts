@@ -59,8 +59,9 @@ export function synthesiseResponse(room: RoomBox, source: Point3, mic: Point3, c
 	// Diffuse tail: octave bands of noise, each with its own exponential decay, starting at the
 	// first reflection and rising over a few milliseconds.
 	const gauss = createSeededGaussian(seed);
-	const tailStart = at(directM / c) + Math.round(0.002 * sampleRate);
-	const tailLevel = 0.09;
+	// The diffuse field builds up after the first reflections (mixing time of a small room, a few ms).
+	const tailStart = at(directM / c) + Math.round(0.006 * sampleRate);
+	const tailLevel = 0.05;
 	OCTAVES_HZ.forEach((fc, b) => {
 		const band = new Float64Array(n);
 		for (let i = tailStart; i < n; i++) band[i] = gauss();
@@ -68,7 +69,7 @@ export function synthesiseResponse(room: RoomBox, source: Point3, mic: Point3, c
 		const k = (3 * Math.LN10) / condition.t60S[b]; // amplitude decay: 60 dB in T
 		for (let i = tailStart; i < n; i++) {
 			const t = (i - tailStart) / sampleRate;
-			const rise = Math.min(1, t / 0.004);
+			const rise = Math.min(1, t / 0.02);
 			ir[i] += tailLevel * rise * Math.exp(-k * t) * band[i];
 		}
 	});

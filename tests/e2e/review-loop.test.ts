@@ -89,7 +89,7 @@ describe('from captures to a published report', () => {
 		await openRoom(page);
 		await page.getByRole('link', { name: title }).click();
 		await page.waitForURL(/\/reports\/\d+$/);
-		expect(await seen(page.getByText('Modal ringing in the low end'))).toBe(true);
+		expect(await seen(page.getByTestId('problem-band').filter({ hasText: 'Modal ringing in the low end' }))).toBe(true);
 		expect(await seen(page.getByText('The corner traps took the boom out'))).toBe(true);
 		expect(await seen(page.getByRole('heading', { name: 'How this was measured' }))).toBe(true);
 		// No internal controls or quality flags for the client.

@@ -43,9 +43,9 @@ export function extent(series: readonly (readonly (number | null)[])[]): [number
 }
 
 /**
- * dB axis range on a fixed grid: the data's extent widened to whole grid steps, at least
- * `minSpan` tall (centred on the data) and at most `maxSpan` (keeping the top: deep notches
- * are cut, peaks never are).
+ * dB axis range on a fixed grid: the data's extent widened to whole grid steps, grown a step at
+ * the top, then the bottom, in turn until `minSpan` tall, and cut to `maxSpan` keeping the top
+ * (deep notches are cut, peaks never are).
  */
 export function gridRange(dataExtent: [number, number], step: number, minSpan: number, maxSpan: number): [number, number] {
 	if (!(step > 0) || !(minSpan >= step) || !(maxSpan >= minSpan)) throw new RangeError(`need 0 < step ≤ minSpan ≤ maxSpan, got ${step}, ${minSpan}, ${maxSpan}`);
