@@ -74,7 +74,10 @@ try {
 	children.push(web);
 	await waitForHttp(`${env.PUBLIC_BASE_URL}/health`);
 
-	await runLayer('unit+integration', ['unit', 'integration']);
+	// One layer at a time: the DSP unit tests would otherwise compete for the two cores with the
+	// worker processes the integration tests time.
+	await runLayer('unit', ['unit']);
+	await runLayer('integration', ['integration']);
 	// Browser tests need mail delivered and captures analysed: a worker runs for them.
 	children.push(startWorker(env, true));
 	await runLayer('e2e', ['e2e']);

@@ -86,7 +86,9 @@ describe('workers', () => {
 		expect((await k('captures').where({ id }).first()).status).toBe('analysed');
 		expect(await k('analyses').where({ capture_id: id }).count({ n: '*' }).first()).toEqual({ n: 1 });
 		const after = await k('jobs').where({ id: job.id }).first();
-		expect(after).toMatchObject({ status: 'done', attempts: 2 });
+		expect(after.status, after.last_error).toBe('done');
+		// Claimed at least twice: once by the killed worker, once after its lease ran out.
+		expect(after.attempts).toBeGreaterThanOrEqual(2);
 	}, 150_000);
 
 	it('two workers on 20 queued captures analyse every one exactly once', async () => {
@@ -101,9 +103,10 @@ describe('workers', () => {
 		const rows = await k('analyses').whereIn('capture_id', ids).select('capture_id');
 		expect(rows).toHaveLength(20);
 		expect(new Set(rows.map((r) => r.capture_id)).size).toBe(20);
-		const jobs = await k('jobs').whereRaw("JSON_VALUE(payload, '$.captureId') IN (" + ids.map(() => '?').join(',') + ')', ids).select('status', 'attempts');
+		const jobs = await k('jobs').whereRaw("JSON_VALUE(payload, '$.captureId') IN (" + ids.map(() => '?').join(',') + ')', ids).select('status', 'attempts', 'last_error');
 		expect(jobs).toHaveLength(20);
-		expect(jobs.every((j) => j.status === 'done' && j.attempts === 1)).toBe(true);
+		expect(jobs.filter((j) => j.status !== 'done'), JSON.stringify(jobs)).toEqual([]);
+		expect(jobs.filter((j) => j.attempts !== 1), JSON.stringify(jobs)).toEqual([]);
 	}, 150_000);
 
 	it('stops gracefully on SIGTERM', async () => {

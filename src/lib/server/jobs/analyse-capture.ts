@@ -9,6 +9,7 @@ import { enqueueMail } from '../mail';
 import { sessionAnalysedMail } from '../messages';
 import type { Storage } from '../storage';
 import { completeInTransaction, type Job } from './queue';
+import { transaction } from '../transaction';
 
 export interface AnalyseCapturePayload {
 	captureId: number;
@@ -152,7 +153,8 @@ export async function handleAnalyseCapture(k: Knex, s: Storage, job: Job<Analyse
 		}
 	}
 
-	await k.transaction(async (trx) => {
+	// Two workers finishing captures of one visit meet on the visit's row: retry on deadlock.
+	await transaction(async (trx) => {
 		await completeInTransaction(trx, job);
 		await trx('analyses').where({ capture_id: ctx.id }).del();
 		if (result) {
@@ -169,16 +171,16 @@ export async function handleAnalyseCapture(k: Knex, s: Storage, job: Job<Analyse
 			.where({ id: ctx.id })
 			.update({ status: failure ? 'failed' : 'analysed', error: failure, analysis_attempts: trx.raw('analysis_attempts + 1') });
 		await noticeIfSessionDone(trx, ctx.sessionId);
-	});
+	}, k);
 	return failure ? 'failed' : 'analysed';
 }
 
 /** After the last retry: the capture fails with a reason a person can act on. */
 export async function settleDeadAnalysis(k: Knex, job: Job<AnalyseCapturePayload>, reason: string): Promise<void> {
-	await k.transaction(async (trx) => {
+	await transaction(async (trx) => {
 		const c = await trx('captures').where({ id: job.payload.captureId }).first('session_id');
 		if (!c) return;
 		await trx('captures').where({ id: job.payload.captureId }).update({ status: 'failed', error: `The analysis could not run (${reason}). Use "Re-run analysis" to try again.` });
 		await noticeIfSessionDone(trx, c.session_id);
-	});
+	}, k);
 }
