@@ -21,10 +21,17 @@ export async function newPage(browser: Browser, viewport = { width: 1280, height
 /** Sign in through the form, as a person would, and wait for the projects page. */
 export async function signIn(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
 	await page.goto('/signin');
+	// Let the page hydrate first, so the enhanced form handles the submit from start to end.
+	await page.waitForLoadState('networkidle');
 	await page.getByLabel('E-mail').fill(email);
 	await page.getByLabel('Password').fill(password);
 	await page.getByRole('button', { name: 'Sign in' }).click();
-	await page.waitForURL('**/projects');
+	try {
+		await page.waitForURL('**/projects');
+	} catch (e) {
+		const alert = await page.getByRole('alert').allInnerTexts().catch(() => []);
+		throw new Error(`Sign-in of ${email} did not reach /projects (at ${page.url()}; ${alert.join(' ') || 'no message shown'})`, { cause: e });
+	}
 }
 
 /** Whether a locator becomes visible within a few seconds (pages navigate and hydrate). */

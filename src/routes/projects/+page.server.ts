@@ -6,12 +6,14 @@ import { createProject, listProjects } from '$lib/server/queries/projects';
 import { recordAudit } from '$lib/server/audit';
 import { transaction } from '$lib/server/transaction';
 import { projectSchema } from '$lib/schemas/projects';
+import { listReportsForClient } from '$lib/server/queries/reviews';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load = (async ({ locals }) => {
 	const user = requireUser(locals);
 	return {
 		projects: await listProjects(db(), user.id, locals.memberships),
+		reports: locals.memberships.some((m) => m.role === 'client') ? await listReportsForClient(db(), user.id) : [],
 		canCreateIn: membershipsAllowing(locals, 'project:create').map((m) => ({ id: m.organizationId, name: m.organizationName }))
 	};
 }) satisfies PageServerLoad;

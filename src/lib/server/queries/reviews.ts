@@ -87,3 +87,25 @@ export async function createProblemBand(
 	});
 	return id;
 }
+
+export interface PublishedReport {
+	id: number;
+	title: string;
+	roomId: number;
+	roomName: string;
+	projectName: string;
+	publishedAt: Date;
+}
+
+/** Published reports of the projects a client belongs to, the latest first. */
+export async function listReportsForClient(k: Knex, userId: number): Promise<PublishedReport[]> {
+	return k('comparisons as c')
+		.join('rooms as r', 'r.id', 'c.room_id')
+		.join('projects as p', 'p.id', 'r.project_id')
+		.join('project_members as pm', 'pm.project_id', 'p.id')
+		.join('memberships as m', (j) => j.on('m.organization_id', '=', 'p.organization_id').andOn('m.user_id', '=', 'pm.user_id'))
+		.where({ 'pm.user_id': userId, 'm.role': 'client' })
+		.whereNotNull('c.published_at')
+		.orderBy('c.published_at', 'desc')
+		.select({ id: 'c.id', title: 'c.title', roomId: 'r.id', roomName: 'r.name', projectName: 'p.name', publishedAt: 'c.published_at' });
+}
