@@ -7,9 +7,20 @@ import { getRoom } from '../queries/rooms';
 import { analysisSummaries } from '../queries/captures';
 import { loadComparisonModel } from './load';
 import type { Scope } from '../auth/access';
+import type { ComparisonModel, SessionSummary } from '../../results/types';
 import { roleAllows } from '../../roles';
 
-export async function loadComparisonPage(k: Knex, scope: Scope, comparisonId: number) {
+/**
+ * Pages draw only the averaged responses, so each position's own curves are left out of what
+ * is sent to the browser (with 2 × 12 positions they are most of the payload).
+ */
+function withoutPositionCurves(model: ComparisonModel): ComparisonModel {
+	const none = { freqHz: [], db: [], smoothed: { '1': [], '3': [], '6': [], '12': [], '24': [] } };
+	const slim = (s: SessionSummary): SessionSummary => ({ ...s, positions: s.positions.map((p) => ({ ...p, response: none })) });
+	return { ...model, baseline: slim(model.baseline), treated: slim(model.treated) };
+}
+
+export async function loadComparisonPage(k: Knex, scope: Scope, comparisonId: number, options: { positionCurves?: boolean } = {}) {
 	const comparison = (await getComparison(k, comparisonId))!;
 	const internal = roleAllows(scope.role, 'project:internal');
 	// A client sees a comparison only once it is published, and never learns that a draft exists.
@@ -39,7 +50,7 @@ export async function loadComparisonPage(k: Knex, scope: Scope, comparisonId: nu
 		room: { id: room.id, name: room.name, lengthM: room.lengthM, widthM: room.widthM, heightM: room.heightM, volumeM3: room.volumeM3, roomUse: room.roomUse },
 		project: { id: project.id, name: project.name, clientName: project.clientName },
 		practiceName: organization.name as string,
-		model,
+		model: options.positionCurves ? model : withoutPositionCurves(model),
 		problemBands: await listProblemBands(k, room.id),
 		qualityNotes,
 		can: {

@@ -8,6 +8,6 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = async ({ locals, params }) => {
 	const comparisonId = Number(params.comparisonId);
 	const scope = await authorize(locals, 'project:read', { comparisonId });
-	const page = await loadComparisonPage(db(), scope, comparisonId);
+	const page = await loadComparisonPage(db(), scope, comparisonId, { positionCurves: true });
 	return json({ comparison: page.comparison, room: page.room, model: page.model, problemBands: page.problemBands });
 };

@@ -10,6 +10,6 @@ export const GET: RequestHandler = async ({ locals, params, url }) => {
 	const comparisonId = Number(params.comparisonId);
 	const scope = await authorize(locals, 'project:read', { comparisonId });
 	const format = exportFormat(url);
-	const page = await loadComparisonPage(db(), scope, comparisonId);
+	const page = await loadComparisonPage(db(), scope, comparisonId, { positionCurves: true });
 	return download(format, `${page.room.name}-comparison`, () => comparisonCsv(page.model), () => comparisonJson(page.model));
 };
