@@ -46,13 +46,20 @@ export function drawResponseChart(pen: ReportPen, box: ChartBox, input: Response
 	drawLegend(pen, box, legend);
 
 	const unclip = clipToPlot(pen, plot);
+	// Numbers of close bands go to a second row; where both rows are taken the number is left out.
+	const rowRightEdges = [-Infinity, -Infinity];
 	input.problemBands.forEach((band, index) => {
 		const lo = Math.max(band.fLoHz, FREQUENCY_DOMAIN[0]);
 		const hi = Math.min(band.fHiHz, FREQUENCY_DOMAIN[1]);
 		if (!(hi > lo)) return;
 		pen.doc.save().rect(x(lo), plot.y, Math.max(x(hi) - x(lo), 1.5), plot.height).fillOpacity(PROBLEM_SHADE_OPACITY[band.severity]).fill(COLOURS.problem).restore();
+		const label = String(index + 1);
+		const halfWidth = pen.use('monoBold', TYPE.axis, COLOURS.ink).widthOf(label) / 2 + 1;
 		const centre = (x(lo) + x(hi)) / 2;
-		pen.use('monoBold', TYPE.axis, COLOURS.ink).text(String(index + 1), centre - 10, plot.y + 3, { width: 20, align: 'center', lineBreak: false });
+		const row = rowRightEdges.findIndex((right) => centre - halfWidth > right);
+		if (row < 0) return;
+		rowRightEdges[row] = centre + halfWidth;
+		pen.text(label, centre - 10, plot.y + 3 + row * (TYPE.axis + 2), { width: 20, align: 'center', lineBreak: false });
 	});
 	unclip();
 

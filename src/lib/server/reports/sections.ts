@@ -49,6 +49,10 @@ function visitLabel(side: 'Before' | 'After', session: SessionSummary, drawn: bo
 	return drawn ? label : `${label} (not measured)`;
 }
 
+function orMissing(text: string): string {
+	return text.trim().length > 0 ? text : MISSING;
+}
+
 function visitFact(session: SessionSummary): string {
 	return `${session.conditionLabel}, measured ${session.measuredOn}`;
 }
@@ -64,15 +68,15 @@ export function drawTitleBlock(pen: ReportPen, report: ReportContent): void {
 	const dimensions = `${formatNumber(room.lengthM, 2)} × ${formatNumber(room.widthM, 2)} × ${formatNumber(room.heightM, 2)} m`;
 	drawFactPanel(pen, [
 		[
-			{ label: 'Project', value: report.projectName },
-			{ label: 'Client', value: report.clientName },
+			{ label: 'Project', value: orMissing(report.projectName) },
+			{ label: 'Client', value: orMissing(report.clientName) },
 			{ label: 'Prepared by', value: report.practiceName },
 			{ label: 'Published', value: formatPublishedDate(report.publishedAt) }
 		],
 		[
 			{ label: 'Room (L×W×H)', value: dimensions, face: 'mono' },
 			{ label: 'Volume', value: `${formatNumber(room.volumeM3, 1)} m³`, face: 'mono' },
-			{ label: 'Use', value: room.roomUse.length > 0 ? room.roomUse : MISSING },
+			{ label: 'Use', value: orMissing(room.roomUse) },
 			{ label: 'Before', value: visitFact(baseline) },
 			{ label: 'After', value: visitFact(treated) },
 			{ label: 'Positions', value: `${matchedPositions.length} compared` }
