@@ -56,7 +56,7 @@ function zeroPhaseAttenuationDb(sos: Float64Array, frequencyHz: number, midHz: n
 }
 
 /**
- * IEC 61260-1:2014 class 1 limits for octave filters at Ω = G^e (two transcriptions agree, REFERENCES.md, S).
+ * IEC 61260-1:2014 class 1 limits for octave filters at Ω = G^e (two independent copies agree, REFERENCES.md, S).
  * min/max relative attenuation in dB; max = Infinity where only a minimum applies.
  */
 const CLASS_1_OCTAVE = [

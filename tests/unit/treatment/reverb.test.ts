@@ -102,11 +102,11 @@ describe('which formula to headline (rule: common practice, no source)', () => {
 
 describe('air absorption, ISO 9613-1:1993', () => {
 	// ISO 9613-1:1993 Table 1 (dB/km at 101.325 kPa, computed by the standard at the exact
-	// midband frequencies 1000·10^(k/10) Hz), as transcribed from the standard in a public test
+	// midband frequencies 1000·10^(k/10) Hz), as copied from the standard in a public test
 	// suite (not re-checked against the standard's own text here). Tolerance 0.5 %: the table has
 	// three significant figures. That suite's row 20 °C / 50 % / 50 Hz = 0.0794 dB/km is left out:
 	// the formula gives 0.0784 (1.2 % off) while every neighbour agrees to 0.3 %, so it looks like
-	// a transcription slip. Note: at 20 °C, 50 % the formula gives ≈ 29.7 dB/km at 4 kHz and
+	// a copying slip. Note: at 20 °C, 50 % the formula gives ≈ 29.7 dB/km at 4 kHz and
 	// ≈ 105 dB/km at 8 kHz; values near 23 and 78 dB/km belong to 70 % RH.
 	const exact = (nominal: number) => {
 		const k: Record<number, number> = { 50: -13, 100: -10, 125: -9, 1000: 0, 4000: 6, 8000: 9 };

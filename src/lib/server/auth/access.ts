@@ -41,59 +41,46 @@ interface Owner {
 	projectId: number | null;
 }
 
+// How each kind of row reaches its project: the tables from the row up to its room, each
+// joined to the next through the foreign key named in PARENT_KEY.
+const CHAINS = {
+	roomId: ['rooms'],
+	sessionId: ['sessions', 'rooms'],
+	positionId: ['positions', 'sessions', 'rooms'],
+	captureId: ['captures', 'sessions', 'rooms'],
+	comparisonId: ['comparisons', 'rooms'],
+	problemBandId: ['problem_bands', 'rooms']
+} as const;
+const PARENT_KEY: Record<string, string> = {
+	positions: 'session_id',
+	captures: 'session_id',
+	sessions: 'room_id',
+	comparisons: 'room_id',
+	problem_bands: 'room_id',
+	rooms: 'project_id'
+};
+
 /** Find the organization (and project) that owns a target, or null if it does not exist. */
 async function ownerOf(k: Knex, target: Target): Promise<Owner | null> {
-	const viaProject = (q: Knex.QueryBuilder) =>
-		q.first({ organizationId: 'p.organization_id', projectId: 'p.id' }) as Promise<Owner | undefined>;
-	let row: Owner | undefined;
 	if ('organizationId' in target) {
 		const org = await k('organizations').where({ id: target.organizationId }).first('id');
 		return org ? { organizationId: org.id, projectId: null } : null;
-	} else if ('projectId' in target) {
-		row = await viaProject(k('projects as p').where('p.id', target.projectId));
-	} else if ('roomId' in target) {
-		row = await viaProject(k('rooms as r').join('projects as p', 'p.id', 'r.project_id').where('r.id', target.roomId));
-	} else if ('sessionId' in target) {
-		row = await viaProject(
-			k('sessions as s')
-				.join('rooms as r', 'r.id', 's.room_id')
-				.join('projects as p', 'p.id', 'r.project_id')
-				.where('s.id', target.sessionId)
-		);
-	} else if ('positionId' in target) {
-		row = await viaProject(
-			k('positions as po')
-				.join('sessions as s', 's.id', 'po.session_id')
-				.join('rooms as r', 'r.id', 's.room_id')
-				.join('projects as p', 'p.id', 'r.project_id')
-				.where('po.id', target.positionId)
-		);
-	} else if ('captureId' in target) {
-		row = await viaProject(
-			k('captures as c')
-				.join('sessions as s', 's.id', 'c.session_id')
-				.join('rooms as r', 'r.id', 's.room_id')
-				.join('projects as p', 'p.id', 'r.project_id')
-				.where('c.id', target.captureId)
-		);
-	} else if ('comparisonId' in target) {
-		row = await viaProject(
-			k('comparisons as cm')
-				.join('rooms as r', 'r.id', 'cm.room_id')
-				.join('projects as p', 'p.id', 'r.project_id')
-				.where('cm.id', target.comparisonId)
-		);
-	} else if ('problemBandId' in target) {
-		row = await viaProject(
-			k('problem_bands as pb')
-				.join('rooms as r', 'r.id', 'pb.room_id')
-				.join('projects as p', 'p.id', 'r.project_id')
-				.where('pb.id', target.problemBandId)
-		);
-	} else if ('sweepId' in target) {
+	}
+	if ('sweepId' in target) {
 		const sweep = await k('sweep_definitions').where({ id: target.sweepId }).first('organization_id');
 		return sweep ? { organizationId: sweep.organization_id, projectId: null } : null;
 	}
+	let q: Knex.QueryBuilder;
+	if ('projectId' in target) {
+		q = k('projects as p').where('p.id', target.projectId);
+	} else {
+		const key = Object.keys(target)[0] as keyof typeof CHAINS;
+		const chain = CHAINS[key];
+		q = k(`${chain[0]} as t0`).where('t0.id', (target as Record<string, number>)[key]);
+		chain.slice(1).forEach((table, i) => q.join(`${table} as t${i + 1}`, `t${i + 1}.id`, `t${i}.${PARENT_KEY[chain[i]]}`));
+		q.join('projects as p', 'p.id', `t${chain.length - 1}.${PARENT_KEY.rooms}`);
+	}
+	const row = (await q.first({ organizationId: 'p.organization_id', projectId: 'p.id' })) as Owner | undefined;
 	return row ?? null;
 }
 

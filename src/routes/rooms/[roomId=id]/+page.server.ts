@@ -18,6 +18,14 @@ import type { Actions, PageServerLoad } from './$types';
 
 const bandIdSchema = z.object({ bandId: z.coerce.number().int().positive() });
 
+/** The problem band a form names, if it belongs to this room. */
+async function bandOfRoom(form: FormData, roomId: number) {
+	const ids = bandIdSchema.safeParse(Object.fromEntries(form));
+	if (!ids.success) return null;
+	const band = await getProblemBand(db(), ids.data.bandId);
+	return band && band.roomId === roomId ? band : null;
+}
+
 export const load = (async ({ locals, params }) => {
 	const roomId = Number(params.roomId);
 	const scope = await authorize(locals, 'project:read', { roomId });
@@ -94,10 +102,8 @@ export const actions = {
 	setBandStatus: async ({ locals, params, request }) => {
 		const scope = await authorize(locals, 'review:write', { roomId: Number(params.roomId) });
 		const form = await request.formData();
-		const ids = bandIdSchema.safeParse(Object.fromEntries(form));
-		if (!ids.success) return formFail(400, form, 'Which problem band?');
-		const band = await getProblemBand(db(), ids.data.bandId);
-		if (!band || band.roomId !== Number(params.roomId)) return formFail(404, form, 'Not found.');
+		const band = await bandOfRoom(form, Number(params.roomId));
+		if (!band) return formFail(404, form, 'No such problem band in this room.');
 		const parsed = parseForm(problemBandStatusSchema, form);
 		if (!parsed.ok) return parsed.failure;
 		await setProblemBandStatus(scope, band.id, parsed.data.status);
@@ -107,10 +113,8 @@ export const actions = {
 	deleteBand: async ({ locals, params, request }) => {
 		const scope = await authorize(locals, 'review:write', { roomId: Number(params.roomId) });
 		const form = await request.formData();
-		const ids = bandIdSchema.safeParse(Object.fromEntries(form));
-		if (!ids.success) return formFail(400, form, 'Which problem band?');
-		const band = await getProblemBand(db(), ids.data.bandId);
-		if (!band || band.roomId !== Number(params.roomId)) return formFail(404, form, 'Not found.');
+		const band = await bandOfRoom(form, Number(params.roomId));
+		if (!band) return formFail(404, form, 'No such problem band in this room.');
 		await removeProblemBand(scope, band.id);
 		return { bandDeleted: true };
 	}
