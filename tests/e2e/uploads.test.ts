@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { join } from 'node:path';
 import { launch, newPage, seen, signIn } from './browser';
+import { waitForMail } from '../helpers/mail';
 
 const FIXTURES = join(import.meta.dirname, '../../fixtures');
 let browser: Browser;
@@ -20,7 +21,8 @@ describe('batch upload from the visit page', () => {
 
 		// A visit of its own, so the demo's visits stay as they are.
 		await page.getByRole('button', { name: 'New visit' }).click();
-		await page.getByLabel('Condition').fill(`upload check ${Date.now()}`);
+		const condition = `upload check ${Date.now()}`;
+		await page.getByLabel('Condition').fill(condition);
 		await page.getByRole('button', { name: 'Create visit' }).click();
 		await page.waitForURL(/\/sessions\/\d+$/);
 		await page.getByRole('region', { name: 'Add recordings' }).waitFor();
@@ -56,6 +58,11 @@ describe('batch upload from the visit page', () => {
 		expect(await sweepRow.getByText('recorded sweep').count()).toBe(1);
 		const stereoRow = rows.filter({ hasText: 'stereo-t0.3-t0.6-48k.wav' });
 		expect(await stereoRow.getByText('ch 1 of 2').count()).toBe(1);
+
+		// The acoustician hears about it once the last capture is done.
+		const mail = await waitForMail('acoustician@fenwick-hale.test', new RegExp(`${condition}: 3 captures analysed`));
+		expect(mail.text).toMatch(/Analysed: 3/);
+		expect(mail.text).toMatch(/\/sessions\/\d+/);
 
 		// The same file again is flagged, not stored twice.
 		await page.getByLabel('Choose WAV files').setInputFiles(join(FIXTURES, 'decay-t0.5-48k.wav'));
