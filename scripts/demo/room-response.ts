@@ -61,7 +61,7 @@ export function synthesiseResponse(room: RoomBox, source: Point3, mic: Point3, c
 	const gauss = createSeededGaussian(seed);
 	// The diffuse field builds up after the first reflections (mixing time of a small room, a few ms).
 	const tailStart = at(directM / c) + Math.round(0.006 * sampleRate);
-	const tailLevel = 0.05;
+	const tailLevel = 0.08;
 	OCTAVES_HZ.forEach((fc, b) => {
 		const band = new Float64Array(n);
 		for (let i = tailStart; i < n; i++) band[i] = gauss();

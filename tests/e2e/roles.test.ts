@@ -46,6 +46,7 @@ describe('each demo role sees what it should', () => {
 		expect(await seen(page.getByRole('link', { name: OTHER }))).toBe(true);
 		expect(await page.getByRole('button', { name: 'New project' }).count()).toBe(0);
 		expect(await page.getByRole('link', { name: 'People' }).count()).toBe(0);
+		expect(await page.getByRole('link', { name: 'Test signal' }).count()).toBe(0);
 	});
 
 	it('client: only their own project, read-only', async () => {
