@@ -19,3 +19,8 @@ export async function mapDuplicate<T>(work: Promise<T>, message: string): Promis
 		throw e;
 	}
 }
+
+/** A delete refused because other rows still refer to this one (a RESTRICT foreign key). */
+export function isStillReferenced(e: unknown): boolean {
+	return (e as { code?: string })?.code === 'ER_ROW_IS_REFERENCED_2';
+}

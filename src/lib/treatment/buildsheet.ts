@@ -13,6 +13,9 @@ export interface BuildSheet {
 
 const round1 = (mm: number) => Math.round(mm * 10) / 10;
 
+/** Name of the thin packing under a shallow well: cut from thin stock or planed, not from the sheets. */
+export const WELL_SHIM_PART = 'well shim';
+
 function positive(v: number, what: string): void {
 	if (!(Number.isFinite(v) && v > 0)) throw new Error(`${what} must be a positive number of mm, got ${v}`);
 }
@@ -72,7 +75,7 @@ export function diffuserBuildSheet(design: DiffuserDesign, options: DiffuserBuil
 		if (gap <= 1e-6) continue;
 		solidVolume += gap * w * inner;
 		if (gap < board) {
-			parts.push({ name: 'well shim', quantity: 1, lengthMm: inner, widthMm: w, thicknessMm: gap, finishedFaces: 1, grain: 'along-length', note: `cut from ${round1(gap)} mm stock or plane down` });
+			parts.push({ name: WELL_SHIM_PART, quantity: 1, lengthMm: inner, widthMm: w, thicknessMm: gap, finishedFaces: 1, grain: 'along-length', note: `cut from ${round1(gap)} mm stock or plane down` });
 			continue;
 		}
 		parts.push({ name: `well bottom (depth ${round1(depthM * 1000)} mm)`, quantity: 1, lengthMm: inner, widthMm: w, thicknessMm: board, finishedFaces: 1, grain: 'along-length' });

@@ -1,0 +1,155 @@
+// From the plan's items to what the workshop needs: a build sheet per design, the parts of all
+// units together laid out on the stock sheets, the weight of each unit and the cost.
+import { diffuserBuildSheet, membraneTrapBuildSheet, porousFrameBuildSheet, WELL_SHIM_PART, type BuildSheet } from '../treatment/buildsheet';
+import { cutList, type CutList, type StockSheet } from '../treatment/cutlist';
+import { PANEL_STOCK } from '../treatment/membrane';
+import type { Part } from '../treatment/parts';
+import { diffuserDesignOf, panelStockOf } from './items';
+import type { PlanItem, StockSheetRow } from './types';
+
+/** Density of the timber sheet goods for weights: plywood, about 600 kg/m³ (from memory, typical). */
+export const SHEET_DENSITY_KG_M3 = PANEL_STOCK.find((s) => s.id === 'plywood')!.densityKgM3;
+
+/**
+ * Above this a unit is heavy enough that a fall can injure and plasterboard alone will not hold
+ * it: fix it to the structure (common practice, no source).
+ */
+export const HEAVY_UNIT_KG = 15;
+
+export interface ItemBuild {
+	itemId: number;
+	label: string;
+	quantity: number;
+	/** Parts of one unit. */
+	sheet: BuildSheet;
+	/** Weight of the sheet-goods parts of one unit, kg (fibre, fabric and fixings not counted). */
+	unitWeightKg: number;
+	heavy: boolean;
+}
+
+export function itemBuildSheet(item: PlanItem): BuildSheet {
+	const p = item.params;
+	switch (p.kind) {
+		case 'diffuser':
+			return diffuserBuildSheet(diffuserDesignOf(p), { heightMm: item.heightMm, boardThicknessMm: p.boardThicknessMm });
+		case 'porous':
+			return porousFrameBuildSheet({
+				widthMm: item.widthMm,
+				heightMm: item.heightMm,
+				absorberThicknessMm: p.thicknessMm,
+				airGapMm: p.airGapMm,
+				frameThicknessMm: p.frameThicknessMm,
+				withBack: p.withBack,
+				fabricWrapped: p.fabricWrapped
+			});
+		case 'membrane':
+			return membraneTrapBuildSheet({
+				widthMm: item.widthMm,
+				heightMm: item.heightMm,
+				cavityDepthMm: p.cavityDepthMm,
+				panelThicknessMm: p.panelThicknessMm,
+				frameThicknessMm: p.frameThicknessMm
+			});
+	}
+}
+
+/** Weight of parts from their volume; a membrane panel uses its own stock's density. */
+function partsWeightKg(item: PlanItem, parts: readonly Part[]): number {
+	const panelDensity = item.params.kind === 'membrane' ? panelStockOf(item.params).densityKgM3 : SHEET_DENSITY_KG_M3;
+	return parts.reduce((sum, part) => {
+		const density = part.name === 'panel (membrane)' ? panelDensity : SHEET_DENSITY_KG_M3;
+		return sum + (part.quantity * part.lengthMm * part.widthMm * part.thicknessMm * density) / 1e9;
+	}, 0);
+}
+
+export function itemBuild(item: PlanItem): ItemBuild {
+	const sheet = itemBuildSheet(item);
+	const unitWeightKg = partsWeightKg(item, sheet.parts);
+	return { itemId: item.id, label: item.label, quantity: item.quantity, sheet, unitWeightKg, heavy: unitWeightKg > HEAVY_UNIT_KG };
+}
+
+/** Build sheets of every item; an item whose sizes cannot be built is reported instead. */
+export function planBuilds(items: readonly PlanItem[]): { builds: ItemBuild[]; errors: { itemId: number; label: string; message: string }[] } {
+	const builds: ItemBuild[] = [];
+	const errors: { itemId: number; label: string; message: string }[] = [];
+	for (const item of items) {
+		try {
+			builds.push(itemBuild(item));
+		} catch (e) {
+			errors.push({ itemId: item.id, label: item.label, message: (e as Error).message });
+		}
+	}
+	return { builds, errors };
+}
+
+/** All parts of all units, each named after its item so the pieces can be told apart on the bench. */
+export function planParts(builds: readonly ItemBuild[]): Part[] {
+	return builds.flatMap((b) => b.sheet.parts.map((part) => ({ ...part, name: `${b.label}: ${part.name}`, quantity: part.quantity * b.quantity })));
+}
+
+/** Thin shims are cut from odd stock or planed down; they stay off the sheet layout. */
+const offSheet = (part: Part) => part.name.endsWith(WELL_SHIM_PART);
+
+/** Parts cut separately from the sheet layout (see offSheet). */
+export function separateParts(builds: readonly ItemBuild[]): Part[] {
+	return planParts(builds).filter(offSheet);
+}
+
+export function stockSheetsOf(rows: readonly StockSheetRow[]): StockSheet[] {
+	return rows.map((r) => ({ id: r.label, lengthMm: r.lengthMm, widthMm: r.widthMm, thicknessMm: r.thicknessMm, finishedFaces: r.finishedFaces, grain: r.grain }));
+}
+
+export type PlanCutList = { ok: true; cutList: CutList } | { ok: false; error: string };
+
+/** The cut list of every part on the plan's stock, or why the parts cannot be cut from it. */
+export function planCutList(builds: readonly ItemBuild[], stock: readonly StockSheetRow[], kerfMm: number): PlanCutList {
+	const parts = planParts(builds).filter((p) => !offSheet(p));
+	if (parts.length === 0) return { ok: false, error: 'The plan has no item to build yet.' };
+	if (stock.length === 0) return { ok: false, error: 'Add the sheets you buy (size, thickness, faces) to lay the parts out.' };
+	try {
+		return { ok: true, cutList: cutList(parts, stockSheetsOf(stock), { kerfMm }) };
+	} catch (e) {
+		return { ok: false, error: (e as Error).message };
+	}
+}
+
+/** Sheet thicknesses the parts need that the stock list lacks, with the face grade each needs. */
+export function missingStock(builds: readonly ItemBuild[], stock: readonly StockSheetRow[]): { thicknessMm: number; finishedFaces: number }[] {
+	const need = new Map<number, number>();
+	for (const part of planParts(builds).filter((p) => !offSheet(p))) need.set(part.thicknessMm, Math.max(need.get(part.thicknessMm) ?? 0, part.finishedFaces));
+	return [...need]
+		.filter(([t, faces]) => !stock.some((s) => Math.abs(s.thicknessMm - t) < 1e-6 && s.finishedFaces >= faces))
+		.map(([thicknessMm, finishedFaces]) => ({ thicknessMm, finishedFaces }))
+		.sort((a, b) => a.thicknessMm - b.thicknessMm);
+}
+
+export interface PlanCost {
+	/** Bought materials of the items (quantity × unit price), where priced. */
+	itemsTotal: number;
+	/** Sheets the cut list uses × their price, where priced. */
+	sheetsTotal: number;
+	total: number;
+	/** Items or sheets without a price, left out of the totals. */
+	unpriced: string[];
+	/** Whether any price was entered at all. */
+	priced: boolean;
+}
+
+export function planCost(items: readonly PlanItem[], stock: readonly StockSheetRow[], cut: PlanCutList): PlanCost {
+	const unpriced: string[] = [];
+	let itemsTotal = 0;
+	for (const item of items) {
+		if (item.unitPrice === null) unpriced.push(item.label);
+		else itemsTotal += item.quantity * item.unitPrice;
+	}
+	let sheetsTotal = 0;
+	if (cut.ok) {
+		for (const used of cut.cutList.perStock) {
+			const row = stock.find((s) => s.label === used.stockId);
+			if (!row || row.price === null) unpriced.push(`sheet ${used.stockId}`);
+			else sheetsTotal += used.sheets * row.price;
+		}
+	}
+	const priced = items.some((i) => i.unitPrice !== null) || stock.some((s) => s.price !== null);
+	return { itemsTotal, sheetsTotal, total: itemsTotal + sheetsTotal, unpriced, priced };
+}

@@ -1,0 +1,89 @@
+// The planner's proposals for a problem band, turned into items a consultant can add as they
+// are or adjust first: sizes that suit the kind, the surface where it usually goes.
+import { planTreatment, type PlannerOptions, type Proposal } from '../treatment/planner';
+import type { SurfaceId } from '../treatment/surfaces';
+import type { PlanItem } from './types';
+
+export type ItemDraft = Omit<PlanItem, 'id'>;
+
+/**
+ * Starting sizes and places (common practice, no source): traps in pairs on the front wall's
+ * corners, absorbers as 600 × 1200 mm panels at the first-reflection points of the side walls,
+ * one diffuser 1200 mm high on the back wall.
+ */
+const STARTING_POINT: Record<Proposal['kind'], { quantity: number; widthMm: number; heightMm: number; surface: SurfaceId }> = {
+	'membrane-trap': { quantity: 2, widthMm: 600, heightMm: 1200, surface: 'front' },
+	'porous-absorber': { quantity: 4, widthMm: 600, heightMm: 1200, surface: 'left' },
+	diffuser: { quantity: 1, widthMm: 0, heightMm: 1200, surface: 'back' }
+};
+
+/** Frame and board thicknesses the drafts assume, mm (common sheet sizes). */
+export const DRAFT_FRAME_MM = 18;
+export const DRAFT_BOARD_MM = 18;
+
+export function draftFromProposal(proposal: Proposal, problemBandId: number | null): ItemDraft {
+	const start = STARTING_POINT[proposal.kind];
+	const base = { quantity: start.quantity, widthMm: start.widthMm, heightMm: start.heightMm, surface: start.surface, unitPrice: null, problemBandId, why: proposal.why };
+	switch (proposal.kind) {
+		case 'porous-absorber':
+			return {
+				...base,
+				label: `Absorber ${proposal.layer.thicknessM * 1000} mm${proposal.layer.airGapM > 0 ? ` + ${proposal.layer.airGapM * 1000} gap` : ''}`,
+				params: {
+					kind: 'porous',
+					thicknessMm: Math.round(proposal.layer.thicknessM * 1000),
+					airGapMm: Math.round(proposal.layer.airGapM * 1000),
+					flowResistivity: proposal.layer.flowResistivity,
+					presetId: null,
+					frameThicknessMm: DRAFT_FRAME_MM,
+					fabricWrapped: true,
+					withBack: proposal.layer.airGapM > 0
+				}
+			};
+		case 'membrane-trap':
+			return {
+				...base,
+				label: `Panel trap ${proposal.trap.resonanceHz.toFixed(0)} Hz`,
+				params: {
+					kind: 'membrane',
+					panelThicknessMm: proposal.trap.panelThicknessMm,
+					panelStockId: 'plywood',
+					cavityDepthMm: Math.round(proposal.trap.cavityDepthM * 1000),
+					cavityFill: proposal.trap.cavityFill,
+					frameThicknessMm: DRAFT_FRAME_MM
+				}
+			};
+		case 'diffuser':
+			return {
+				...base,
+				widthMm: Math.round(proposal.diffuser.panelWidthM * 1000),
+				label: `Diffuser N = ${proposal.diffuser.prime}`,
+				params: {
+					kind: 'diffuser',
+					sequence: proposal.diffuser.kind,
+					prime: proposal.diffuser.prime,
+					designFrequencyHz: Math.round(proposal.diffuser.requestedDesignFrequencyHz),
+					wellWidthMm: Math.round(proposal.diffuser.wellWidthM * 1000),
+					finThicknessMm: Math.round(proposal.diffuser.finThicknessM * 1000 * 10) / 10,
+					maxDepthMm: null,
+					boardThicknessMm: DRAFT_BOARD_MM
+				}
+			};
+	}
+}
+
+export interface BandProposals {
+	region: ReturnType<typeof planTreatment>['region'];
+	notes: string[];
+	proposals: { proposal: Proposal; draft: ItemDraft }[];
+}
+
+/** Proposals for a problem band, each with the item it would add. */
+export function proposalsForBand(band: { id: number; fLoHz: number; fHiHz: number; note?: string }, options: PlannerOptions = {}): BandProposals {
+	const plan = planTreatment({ fLoHz: band.fLoHz, fHiHz: band.fHiHz, note: band.note }, options);
+	return {
+		region: plan.region,
+		notes: plan.notes,
+		proposals: plan.proposals.map((proposal) => ({ proposal, draft: draftFromProposal(proposal, band.id) }))
+	};
+}

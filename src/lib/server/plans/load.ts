@@ -1,0 +1,67 @@
+// A room's plan loaded and worked through, for the plan page, the build page, the JSON route
+// and the client report.
+import type { Knex } from 'knex';
+import { defaultTarget } from '../../results/comparison';
+import type { SessionSummary } from '../../results/types';
+import { PLANNING_BANDS_HZ } from '../../treatment/bands';
+import { evaluatePlan, type PlanEvaluation } from '../../plans/evaluate';
+import { measuredTimes, type MeasuredTimes } from '../../plans/measured';
+import { planBuilds, planCost, planCutList, type ItemBuild, type PlanCost, type PlanCutList } from '../../plans/build';
+import type { StoredPlan } from '../../plans/types';
+import { getRoom, type RoomRow } from '../queries/rooms';
+import { listCustomMaterials, loadStoredPlan, materialCatalogue, type CustomMaterialRow } from '../queries/plans';
+import { loadSessionSummary } from '../results/load';
+
+export interface MeasuredVisit {
+	sessionId: number;
+	conditionLabel: string;
+	measuredOn: string;
+	positions: number;
+	times: MeasuredTimes;
+}
+
+export interface PlanView {
+	room: RoomRow;
+	plan: StoredPlan;
+	customMaterials: CustomMaterialRow[];
+	before: MeasuredVisit | null;
+	after: MeasuredVisit | null;
+	evaluation: PlanEvaluation;
+	builds: ItemBuild[];
+	buildErrors: { itemId: number; label: string; message: string }[];
+	cut: PlanCutList;
+	cost: PlanCost;
+}
+
+function visitOf(summary: SessionSummary): MeasuredVisit {
+	return {
+		sessionId: summary.sessionId,
+		conditionLabel: summary.conditionLabel,
+		measuredOn: summary.measuredOn,
+		positions: summary.positions.length,
+		times: measuredTimes(summary.average)
+	};
+}
+
+/**
+ * Everything a plan page shows. `summaries` passes visits already loaded (the report has both
+ * of its comparison's), so they are not read twice.
+ */
+export async function loadPlanView(k: Knex, roomId: number, organizationId: number, summaries: readonly SessionSummary[] = []): Promise<PlanView> {
+	const [room, plan, customMaterials] = await Promise.all([getRoom(k, roomId), loadStoredPlan(k, roomId), listCustomMaterials(k, organizationId)]);
+	if (!room) throw new Error(`room ${roomId} does not exist`);
+	const summaryOf = async (id: number | null) =>
+		id === null ? null : visitOf(summaries.find((s) => s.sessionId === id) ?? (await loadSessionSummary(k, id)));
+	const [before, after] = await Promise.all([summaryOf(plan.settings.baselineSessionId), summaryOf(plan.settings.afterSessionId)]);
+	const evaluation = evaluatePlan({
+		room: { lengthM: room.lengthM, widthM: room.widthM, heightM: room.heightM },
+		plan,
+		catalogue: materialCatalogue(customMaterials),
+		measuredBeforeS: before ? before.times.valuesS : null,
+		measuredAfterS: after ? after.times.valuesS : null,
+		target: defaultTarget({ ...room }, PLANNING_BANDS_HZ)
+	});
+	const { builds, errors } = planBuilds(plan.items);
+	const cut = planCutList(builds, plan.stock, plan.settings.kerfMm);
+	return { room, plan, customMaterials, before, after, evaluation, builds, buildErrors: errors, cut, cost: planCost(plan.items, plan.stock, cut) };
+}

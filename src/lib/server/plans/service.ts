@@ -1,0 +1,230 @@
+// Changes to a room's treatment plan. Each runs in one transaction with its audit record; the
+// plan row is locked first, so two edits of one plan apply one after the other. A change that
+// would leave the plan impossible (items larger than their wall, a frame too small to build,
+// an opening that does not fit) is refused with the reason, and nothing is written.
+import type { Knex } from 'knex';
+import { recordAudit } from '../audit';
+import { isDuplicateKey, isStillReferenced } from '../db-errors';
+import { transaction } from '../transaction';
+import { ReviewProblem } from '../reviews';
+import type { Scope } from '../auth/access';
+import { getRoom } from '../queries/rooms';
+import {
+	createCustomMaterial,
+	ensurePlan,
+	getCustomMaterial,
+	insertItem,
+	insertOpening,
+	insertStock,
+	listCustomMaterials,
+	loadStoredPlan,
+	materialCatalogue,
+	setSurfaceFinish,
+	updateItem,
+	updatePlanSettings
+} from '../queries/plans';
+import { parseMaterialKey } from '../../schemas/treatment';
+import { evaluatePlan } from '../../plans/evaluate';
+import { itemBuild } from '../../plans/build';
+import { unitWidthMm } from '../../plans/items';
+import type { PlanItem, PlanOpening, PlanSettings, StockSheetRow, StoredPlan } from '../../plans/types';
+import type { SurfaceId } from '../../treatment/surfaces';
+import { TABLE_BANDS_HZ } from '../../treatment/bands';
+
+export { ReviewProblem as PlanProblem };
+
+type ItemInput = Omit<PlanItem, 'id'>;
+
+function audit(trx: Knex, scope: Scope, action: string, entityType: string, entityId: number | null, details?: Record<string, unknown>) {
+	return recordAudit(trx, { organizationId: scope.organizationId, userId: scope.user.id, action, entityType, entityId, details });
+}
+
+/** A finish the user picked: a built-in material, or one of this organization's own. */
+async function resolveMaterialKey(k: Knex, organizationId: number, key: string, field = 'materialKey') {
+	const parsed = parseMaterialKey(key);
+	if (parsed && 'customId' in parsed) {
+		const m = await getCustomMaterial(k, parsed.customId);
+		if (m && m.organizationId === organizationId) return parsed;
+	} else if (parsed) return parsed;
+	throw new ReviewProblem(400, 'Pick a material from the list.', field);
+}
+
+/** Refuses the change when the plan it leads to cannot be worked out; the reason goes to the user. */
+async function assertWorkable(trx: Knex, scope: Scope, roomId: number, plan: StoredPlan, field?: string): Promise<void> {
+	const room = (await getRoom(trx, roomId))!;
+	const catalogue = materialCatalogue(await listCustomMaterials(trx, scope.organizationId));
+	const evaluation = evaluatePlan({
+		room: { lengthM: room.lengthM, widthM: room.widthM, heightM: room.heightM },
+		plan,
+		catalogue,
+		measuredBeforeS: null,
+		measuredAfterS: null,
+		target: []
+	});
+	if (evaluation.problems.length > 0) throw new ReviewProblem(400, capitalise(evaluation.problems[0]), field);
+}
+
+const capitalise = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
+
+async function checkSessionsOfRoom(trx: Knex, roomId: number, ids: (number | null)[]): Promise<void> {
+	const wanted = ids.filter((id): id is number => id !== null);
+	if (wanted.length === 0) return;
+	const found = await trx('sessions').whereIn('id', wanted).where({ room_id: roomId }).select('id');
+	if (found.length !== new Set(wanted).size) throw new ReviewProblem(400, 'Pick visits of this room.', 'baselineSessionId');
+}
+
+export async function savePlanSettings(scope: Scope, roomId: number, settings: PlanSettings): Promise<void> {
+	if (settings.baselineSessionId !== null && settings.baselineSessionId === settings.afterSessionId) {
+		throw new ReviewProblem(400, 'The visit after treatment must be another visit than the one before.', 'afterSessionId');
+	}
+	await transaction(async (trx) => {
+		await checkSessionsOfRoom(trx, roomId, [settings.baselineSessionId, settings.afterSessionId]);
+		const planId = await ensurePlan(trx, roomId, scope.user.id);
+		await updatePlanSettings(trx, planId, settings, scope.user.id);
+		await audit(trx, scope, 'plan.settings_saved', 'treatment_plan', planId);
+	});
+}
+
+export async function setFinish(scope: Scope, roomId: number, surface: SurfaceId, materialKey: string): Promise<void> {
+	await transaction(async (trx) => {
+		const key = await resolveMaterialKey(trx, scope.organizationId, materialKey);
+		const planId = await ensurePlan(trx, roomId, scope.user.id);
+		await setSurfaceFinish(trx, roomId, surface, key);
+		await audit(trx, scope, 'plan.finish_set', 'treatment_plan', planId, { surface, materialKey });
+	});
+}
+
+export async function addOpening(scope: Scope, roomId: number, opening: Omit<PlanOpening, 'id'>): Promise<number> {
+	return transaction(async (trx) => {
+		const key = await resolveMaterialKey(trx, scope.organizationId, opening.materialKey);
+		const planId = await ensurePlan(trx, roomId, scope.user.id);
+		const plan = await loadStoredPlan(trx, roomId);
+		await assertWorkable(trx, scope, roomId, { ...plan, openings: [...plan.openings, { ...opening, id: 0 }] }, 'widthM');
+		const id = await insertOpening(trx, roomId, opening, key);
+		await audit(trx, scope, 'plan.opening_added', 'treatment_plan', planId, { openingId: id, label: opening.label });
+		return id;
+	});
+}
+
+export async function removeOpening(scope: Scope, roomId: number, openingId: number): Promise<void> {
+	await transaction(async (trx) => {
+		const planId = await ensurePlan(trx, roomId, scope.user.id);
+		const removed = await trx('room_openings').where({ id: openingId, room_id: roomId }).del();
+		if (removed === 0) throw new ReviewProblem(404, 'No such opening in this room.');
+		await audit(trx, scope, 'plan.opening_removed', 'treatment_plan', planId, { openingId });
+	});
+}
+
+/** The stored shape of an item: a diffuser's width is its design's panel width. */
+function normalisedItem(item: ItemInput): ItemInput {
+	return item.params.kind === 'diffuser' ? { ...item, widthMm: Math.round(unitWidthMm(item) * 10) / 10 } : item;
+}
+
+async function checkProblemBand(trx: Knex, roomId: number, bandId: number | null): Promise<void> {
+	if (bandId === null) return;
+	const band = await trx('problem_bands').where({ id: bandId, room_id: roomId }).first('id');
+	if (!band) throw new ReviewProblem(400, 'That problem band is of another room.', 'problemBandId');
+}
+
+/** The item must be buildable as sized (a frame wider than the panel is not). */
+function checkBuildable(item: ItemInput): void {
+	try {
+		itemBuild({ ...item, id: 0 });
+	} catch (e) {
+		throw new ReviewProblem(400, `This item cannot be built as sized: ${(e as Error).message}.`, 'widthMm');
+	}
+}
+
+export async function addItem(scope: Scope, roomId: number, input: ItemInput): Promise<number> {
+	const item = normalisedItem(input);
+	checkBuildable(item);
+	return transaction(async (trx) => {
+		await checkProblemBand(trx, roomId, item.problemBandId);
+		const planId = await ensurePlan(trx, roomId, scope.user.id);
+		const plan = await loadStoredPlan(trx, roomId);
+		await assertWorkable(trx, scope, roomId, { ...plan, items: [...plan.items, { ...item, id: 0 }] }, 'quantity');
+		const id = await insertItem(trx, planId, item);
+		await audit(trx, scope, 'plan.item_added', 'treatment_item', id, { kind: item.params.kind, label: item.label, problemBandId: item.problemBandId });
+		return id;
+	});
+}
+
+async function itemOfRoom(trx: Knex, roomId: number, itemId: number): Promise<number> {
+	const row = await trx('treatment_items as i').join('treatment_plans as p', 'p.id', 'i.plan_id').where({ 'i.id': itemId, 'p.room_id': roomId }).first('p.id as planId');
+	if (!row) throw new ReviewProblem(404, 'No such item in this plan.');
+	return row.planId;
+}
+
+export async function changeItem(scope: Scope, roomId: number, itemId: number, input: ItemInput): Promise<void> {
+	const item = normalisedItem(input);
+	checkBuildable(item);
+	await transaction(async (trx) => {
+		await ensurePlan(trx, roomId, scope.user.id);
+		await itemOfRoom(trx, roomId, itemId);
+		await checkProblemBand(trx, roomId, item.problemBandId);
+		const plan = await loadStoredPlan(trx, roomId);
+		await assertWorkable(trx, scope, roomId, { ...plan, items: plan.items.map((i) => (i.id === itemId ? { ...item, id: itemId } : i)) }, 'quantity');
+		await updateItem(trx, itemId, item);
+		await audit(trx, scope, 'plan.item_changed', 'treatment_item', itemId, { label: item.label });
+	});
+}
+
+export async function removeItem(scope: Scope, roomId: number, itemId: number): Promise<void> {
+	await transaction(async (trx) => {
+		await ensurePlan(trx, roomId, scope.user.id);
+		await itemOfRoom(trx, roomId, itemId);
+		await trx('treatment_items').where({ id: itemId }).del();
+		await audit(trx, scope, 'plan.item_removed', 'treatment_item', itemId);
+	});
+}
+
+export async function addStock(scope: Scope, roomId: number, stock: Omit<StockSheetRow, 'id'>): Promise<number> {
+	return transaction(async (trx) => {
+		const planId = await ensurePlan(trx, roomId, scope.user.id);
+		try {
+			const id = await insertStock(trx, planId, stock);
+			await audit(trx, scope, 'plan.stock_added', 'treatment_plan', planId, { label: stock.label });
+			return id;
+		} catch (e) {
+			if (isDuplicateKey(e)) throw new ReviewProblem(409, `A sheet called "${stock.label}" is already on the list.`, 'label');
+			throw e;
+		}
+	});
+}
+
+export async function removeStock(scope: Scope, roomId: number, stockId: number): Promise<void> {
+	await transaction(async (trx) => {
+		const planId = await ensurePlan(trx, roomId, scope.user.id);
+		const removed = await trx('stock_sheets').where({ id: stockId, plan_id: planId }).del();
+		if (removed === 0) throw new ReviewProblem(404, 'No such sheet on this plan.');
+		await audit(trx, scope, 'plan.stock_removed', 'treatment_plan', planId, { stockId });
+	});
+}
+
+export async function addCustomMaterial(scope: Scope, m: { name: string; source: string; coefficients: number[] }): Promise<number> {
+	if (m.coefficients.length !== TABLE_BANDS_HZ.length) throw new ReviewProblem(400, `Give ${TABLE_BANDS_HZ.length} coefficients.`);
+	return transaction(async (trx) => {
+		try {
+			const id = await createCustomMaterial(trx, scope.organizationId, m, scope.user.id);
+			await audit(trx, scope, 'material.created', 'custom_material', id, { name: m.name });
+			return id;
+		} catch (e) {
+			if (isDuplicateKey(e)) throw new ReviewProblem(409, `The practice already has a material called "${m.name}".`, 'name');
+			throw e;
+		}
+	});
+}
+
+export async function removeCustomMaterial(scope: Scope, materialId: number): Promise<void> {
+	await transaction(async (trx) => {
+		const m = await getCustomMaterial(trx, materialId);
+		if (!m || m.organizationId !== scope.organizationId) throw new ReviewProblem(404, 'No such material.');
+		try {
+			await trx('custom_materials').where({ id: materialId }).del();
+		} catch (e) {
+			if (isStillReferenced(e)) throw new ReviewProblem(409, 'This material is the finish of a surface or opening; give those another finish first.');
+			throw e;
+		}
+		await audit(trx, scope, 'material.deleted', 'custom_material', materialId);
+	});
+}
