@@ -11,6 +11,7 @@ import {
 	type Point3,
 	type RoomBox
 } from '../../src/lib/analysis';
+import { treatedT60S, UNTREATED_T60_S } from './plan';
 
 export interface Condition {
 	/** Reverberation time per octave band 63 … 8000 Hz, seconds. */
@@ -24,15 +25,17 @@ export interface Condition {
 export const OCTAVES_HZ = [63, 125, 250, 500, 1000, 2000, 4000, 8000];
 
 export const UNTREATED: Condition = {
-	t60S: [0.92, 0.78, 0.62, 0.55, 0.52, 0.5, 0.46, 0.4],
+	t60S: UNTREATED_T60_S,
 	reflection: { floor: 0.8, ceiling: 0.85, front: 0.8, back: 0.85, left: 0.9, right: 0.9 },
 	modeT60S: 1.1
 };
 
+/** After treatment: the demo plan's prediction as installed (scripts/demo/plan.ts). */
 export const TREATED: Condition = {
-	t60S: [0.5, 0.4, 0.32, 0.29, 0.28, 0.27, 0.26, 0.25],
+	t60S: treatedT60S(),
 	reflection: { floor: 0.75, ceiling: 0.5, front: 0.7, back: 0.35, left: 0.3, right: 0.3 },
-	modeT60S: 0.5
+	// The traps tame the modes, but below their tuning they still ring longer than the tail.
+	modeT60S: 0.8
 };
 
 export function synthesiseResponse(room: RoomBox, source: Point3, mic: Point3, condition: Condition, seed: number, sampleRate = 48_000, lengthS = 1.8): Float64Array {

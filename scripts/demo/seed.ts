@@ -2,6 +2,7 @@
 import type { Knex } from 'knex';
 import { hashPassword } from '../../src/lib/server/auth/password';
 import { DEMO_ORGANIZATION, DEMO_PASSWORD, DEMO_PROJECTS, DEMO_USERS } from './scenario';
+import { seedDemoPlan } from './seed-plan';
 
 export interface SeedResult {
 	created: boolean;
@@ -63,6 +64,10 @@ export async function seedDemo(k: Knex): Promise<SeedResult> {
 				}
 			}
 		}
+		// The first project's room has been reviewed and treated: problem bands and a plan.
+		const [lindqvist] = await trx('rooms as r').join('projects as p', 'p.id', 'r.project_id').where({ 'p.organization_id': organizationId, 'p.name': DEMO_PROJECTS[0].name }).select('r.id');
+		const sessions = await trx('sessions').where({ room_id: lindqvist.id }).orderBy('measured_on').select('id');
+		await seedDemoPlan(trx, { roomId: lindqvist.id, consultantId: userIds.get('consultant@fenwick-hale.test')!, baselineSessionId: sessions[0].id, afterSessionId: sessions[1].id });
 		return { created: true, organizationId };
 	});
 }

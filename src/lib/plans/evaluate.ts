@@ -5,7 +5,7 @@ import type { TargetBand } from '../analysis/targets';
 import { DEFAULT_AIR } from '../treatment/air';
 import type { AtmosphereConditions } from '../treatment/airAbsorption';
 import { PLANNING_BANDS_HZ } from '../treatment/bands';
-import { calibrate, checkAgainstTarget, predictWithTreatment, type CalibrationPatch, type TargetVerdict, type TreatmentItem } from '../treatment/calibrate';
+import { calibrate, checkAgainstTarget, predictWithTreatment, type BandPrediction, type Calibration, type CalibrationPatch, type TargetVerdict, type TreatmentItem } from '../treatment/calibrate';
 import { materialBandCoefficients, type Material } from '../treatment/materials';
 import { airAttenuationPerBand, chooseFormula, eyringTime, millingtonTime, sabineTime, type ReverbFormula } from '../treatment/reverb';
 import { roomPatches, roomVolumeM3, SURFACE_IDS, surfaceAreaM2, surfaceSidesM, type RoomDimensions, type SurfaceId } from '../treatment/surfaces';
@@ -13,6 +13,9 @@ import { itemAcoustics, type ItemAcoustics } from './items';
 import { DEFAULT_FINISH, type MaterialCatalogue, type MaterialKey, type StoredPlan } from './types';
 
 export const FORMULAS: readonly ReverbFormula[] = ['sabine', 'eyring', 'millington'];
+
+/** The bands the formula is chosen on (ISO 3382-1 single-number mid bands). */
+export const MID_BANDS_HZ = [500, 1000] as const;
 
 export interface PlanInput {
 	room: RoomDimensions;
@@ -117,7 +120,7 @@ export function evaluatePlan(input: PlanInput): PlanEvaluation {
 	const { room, plan, catalogue } = input;
 	const warnings: string[] = [];
 	const problems: string[] = [];
-	const volumeM3 = roomVolumeM3(room);
+	const volumeM3 = roomVolumeM3({ lengthM: room.lengthM, widthM: room.widthM, heightM: room.heightM });
 	const air: AtmosphereConditions = { temperatureC: plan.settings.temperatureC, relativeHumidityPct: plan.settings.relativeHumidityPct };
 
 	const finishes = Object.fromEntries(SURFACE_IDS.map((s) => [s, resolveMaterial(catalogue, plan.finishes[s] ?? DEFAULT_FINISH, warnings)])) as Record<SurfaceId, Material>;
@@ -142,7 +145,7 @@ export function evaluatePlan(input: PlanInput): PlanEvaluation {
 	let patches: CalibrationPatch[] = [];
 	try {
 		patches = roomPatches(
-			room,
+			{ lengthM: room.lengthM, widthM: room.widthM, heightM: room.heightM },
 			Object.fromEntries(SURFACE_IDS.map((s) => [s, materialBandCoefficients(finishes[s])])) as Record<SurfaceId, number[]>,
 			plan.openings.map((o) => ({ label: o.label, surface: o.surface, widthM: o.widthM, heightM: o.heightM, coefficients: materialBandCoefficients(resolveMaterial(catalogue, o.materialKey, warnings)) }))
 		);
@@ -172,26 +175,41 @@ export function evaluatePlan(input: PlanInput): PlanEvaluation {
 		coefficients: items[i].coefficients.map((a) => Math.min(Math.max(a, 0), 1)),
 		covers: item.surface ?? undefined
 	}));
-	const byFormula = Object.fromEntries(
-		FORMULAS.map((formula) => {
-			const assumed = assumedTimes(volumeM3, patches, formula, air);
-			// A band without a measurement keeps the assumed room as it is (residual 0).
-			const calibration = calibrate({ volumeM3, patches, measuredS: measuredBefore.map((m, i) => m ?? assumed[i]), formula, air, speedOfSound: DEFAULT_AIR.speedOfSound });
-			return [formula, { assumed, calibration, predictions: predictWithTreatment(calibration, treatment) }];
-		})
-	) as Record<ReverbFormula, { assumed: number[]; calibration: ReturnType<typeof calibrate>; predictions: ReturnType<typeof predictWithTreatment> }>;
+	let byFormula: Record<ReverbFormula, { assumed: number[]; calibration: Calibration; predictions: BandPrediction[] }>;
+	try {
+		byFormula = Object.fromEntries(
+			FORMULAS.map((formula) => {
+				const assumed = assumedTimes(volumeM3, patches, formula, air);
+				// A band without a measurement keeps the assumed room as it is (residual 0).
+				const calibration = calibrate({ volumeM3, patches, measuredS: measuredBefore.map((m, i) => m ?? assumed[i]), formula, air, speedOfSound: DEFAULT_AIR.speedOfSound });
+				return [formula, { assumed, calibration, predictions: predictWithTreatment(calibration, treatment) }];
+			})
+		) as typeof byFormula;
+	} catch (e) {
+		problems.push((e as Error).message);
+		return { volumeM3, surfaceAreaM2: surfaceAreaTotal, surfaces, items, bands: emptyBands(measuredBefore, measuredAfter, target), calibration: calibrationKind, warnings, problems };
+	}
 	for (const w of byFormula.sabine.calibration.warnings) warnings.push(w);
 
-	const bands = PLANNING_BANDS_HZ.map((bandHz, i): PlanBandRow => {
-		// Which formula to read: judged on the treated room, each item replacing what it covers.
-		const areas = [
+	// Which formula to read, judged once for the room on the treated room at 500 Hz and 1 kHz
+	// (the mid bands ISO 3382-1 averages for single numbers): each item replaces what it covers,
+	// and the absorption the measurement found beyond the finishes is spread evenly over the
+	// surfaces (where it is, nobody knows; even is Eyring's own assumption). One formula for
+	// every band keeps the predicted curve from jumping where a per-band rule would switch.
+	const treatedAreasAt = (i: number) => {
+		const spread = byFormula.sabine.calibration.bands[i].residualM2 / byFormula.sabine.calibration.surfaceAreaM2;
+		return [
 			...patches.map((p) => {
 				const covered = p.kind === 'surface' ? treatment.filter((t) => t.covers === p.surface).reduce((sum, t) => sum + t.areaM2, 0) : 0;
-				return { areaM2: Math.max(p.areaM2 - covered, 0), alpha: p.coefficients[i] };
+				return { areaM2: Math.max(p.areaM2 - covered, 0), alpha: Math.min(Math.max(p.coefficients[i] + spread, 0), 1) };
 			}),
 			...treatment.map((t) => ({ areaM2: t.areaM2, alpha: t.coefficients[i] }))
 		];
-		const choice = chooseFormula(areas);
+	};
+	const mid = MID_BANDS_HZ.map((f) => treatedAreasAt(PLANNING_BANDS_HZ.indexOf(f as (typeof PLANNING_BANDS_HZ)[number])));
+	const choice = chooseFormula(mid[0].map((a, j) => ({ areaM2: a.areaM2, alpha: (a.alpha + mid[1][j].alpha) / 2 })));
+
+	const bands = PLANNING_BANDS_HZ.map((bandHz, i): PlanBandRow => {
 		const chosen = byFormula[choice.formula];
 		const predictedByFormula = Object.fromEntries(FORMULAS.map((f) => [f, byFormula[f].predictions[i].predictedS])) as Record<ReverbFormula, number | null>;
 		const predictedS = predictedByFormula[choice.formula];

@@ -34,8 +34,12 @@ export interface BandCalibration {
 	assumedAbsorptionM2: number;
 	/** Residual in the formula's own measure (m² of Sabine area, of Σ Sα for Eyring, of −Σ S ln(1−α) for Millington), before clamping. */
 	rawResidualM2: number | null;
-	/** Residual used for predictions (never negative). */
+	/**
+	 * Residual used for predictions. Negative when the assumed finishes absorb more than the room
+	 * measured: the measurement wins, so the calibrated room still reproduces it.
+	 */
 	residualM2: number;
+	/** True when the residual is negative: the assumed finishes overstate the room's absorption. */
 	clamped: boolean;
 }
 
@@ -120,10 +124,10 @@ export function calibrate(input: CalibrationInput): Calibration {
 		const clamped = raw < 0;
 		if (clamped) {
 			warnings.push(
-				`${bandHz} Hz: assumed finishes absorb more than measured (${(-raw).toFixed(2)} m² too much); check the assumed materials`
+				`${bandHz} Hz: assumed finishes absorb more than measured (${(-raw).toFixed(2)} m² too much); the measurement is kept, but check the assumed materials`
 			);
 		}
-		return { bandHz, measuredS: measured, assumedAbsorptionM2, rawResidualM2: raw, residualM2: Math.max(raw, 0), clamped };
+		return { bandHz, measuredS: measured, assumedAbsorptionM2, rawResidualM2: raw, residualM2: raw, clamped };
 	});
 	return {
 		formula,
@@ -139,7 +143,7 @@ export function calibrate(input: CalibrationInput): Calibration {
 
 export interface BandPrediction {
 	bandHz: number;
-	/** T of the calibrated room without treatment (equals the measurement unless clamped). */
+	/** T of the calibrated room without treatment (equals the measurement). */
 	baselineS: number | null;
 	/** T with the treatment added. */
 	predictedS: number | null;

@@ -1,5 +1,5 @@
 // Drawing of one cut sheet: parts labelled, saw cuts as thin lines, offcuts hatched.
-import type { SheetLayout } from './cutlist';
+import type { Placement, SheetLayout } from './cutlist';
 import { DRAWING_FONT, escapeXml, line, PALETTE, px, rect, text } from './svg';
 import { formatLength, type LengthUnit } from './units';
 
@@ -8,7 +8,12 @@ export interface CuttingDiagramOptions {
 	/** Drawing width of the sheet in pixels; the height follows the sheet's proportions. */
 	widthPx?: number;
 	title?: string;
+	/** Short text to mark each piece with (e.g. a key into a parts legend); the part's name by default. */
+	labelOf?: (placement: Placement) => string;
 }
+
+/** Width of mono text at this size, px (JetBrains Mono advances 0.6 em). */
+const textWidth = (text: string, fontSize: number) => text.length * fontSize * 0.6;
 
 export function cuttingDiagramSvg(layout: SheetLayout, options: CuttingDiagramOptions = {}): string {
 	const unit = options.unit ?? 'mm';
@@ -38,7 +43,11 @@ export function cuttingDiagramSvg(layout: SheetLayout, options: CuttingDiagramOp
 	for (const p of layout.placements) {
 		out.push(rect(X(p.x), Y(p.y), p.lengthMm * s, p.widthMm * s, `fill="${PALETTE.wood}" stroke="${PALETTE.woodEdge}" stroke-width="0.75"`));
 		const size = `${formatLength(p.rotated ? p.widthMm : p.lengthMm, unit)} × ${formatLength(p.rotated ? p.lengthMm : p.widthMm, unit)}`;
-		const label = p.lengthMm * s > 90 && p.widthMm * s > 24 ? `${p.name} ${size}` : p.lengthMm * s > 40 && p.widthMm * s > 10 ? p.name : '';
+		const name = options.labelOf ? options.labelOf(p) : p.name;
+		// The longest text that fits inside the piece, or none.
+		const room = p.lengthMm * s - 4;
+		const tallEnough = p.widthMm * s > 12;
+		const label = !tallEnough ? '' : textWidth(`${name} ${size}`, 10) <= room ? `${name} ${size}` : textWidth(name, 10) <= room ? name : '';
 		if (label) {
 			out.push(
 				text(X(p.x + p.lengthMm / 2), Y(p.y + p.widthMm / 2) + 4, label, `${DRAWING_FONT} font-size="10" fill="${PALETTE.ink}" text-anchor="middle"`)

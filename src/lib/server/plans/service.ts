@@ -73,15 +73,17 @@ async function checkSessionsOfRoom(trx: Knex, roomId: number, ids: (number | nul
 	if (found.length !== new Set(wanted).size) throw new ReviewProblem(400, 'Pick visits of this room.', 'baselineSessionId');
 }
 
-export async function savePlanSettings(scope: Scope, roomId: number, settings: PlanSettings): Promise<void> {
-	if (settings.baselineSessionId !== null && settings.baselineSessionId === settings.afterSessionId) {
-		throw new ReviewProblem(400, 'The visit after treatment must be another visit than the one before.', 'afterSessionId');
-	}
+/** Saves the settings a form carries; the others keep their stored values. */
+export async function savePlanSettings(scope: Scope, roomId: number, changes: Partial<PlanSettings>): Promise<void> {
 	await transaction(async (trx) => {
-		await checkSessionsOfRoom(trx, roomId, [settings.baselineSessionId, settings.afterSessionId]);
 		const planId = await ensurePlan(trx, roomId, scope.user.id);
+		const settings = { ...(await loadStoredPlan(trx, roomId)).settings, ...changes };
+		if (settings.baselineSessionId !== null && settings.baselineSessionId === settings.afterSessionId) {
+			throw new ReviewProblem(400, 'The visit after treatment must be another visit than the one before.', 'afterSessionId');
+		}
+		await checkSessionsOfRoom(trx, roomId, [settings.baselineSessionId, settings.afterSessionId]);
 		await updatePlanSettings(trx, planId, settings, scope.user.id);
-		await audit(trx, scope, 'plan.settings_saved', 'treatment_plan', planId);
+		await audit(trx, scope, 'plan.settings_saved', 'treatment_plan', planId, { changed: Object.keys(changes) });
 	});
 }
 
