@@ -6,7 +6,7 @@ import { registerReportFonts } from './fonts';
 import { stampFooters } from './footer';
 import { ReportPen } from './pen';
 import { DEFAULT_TARGET_BASIS } from './report-text';
-import { drawReport } from './sections';
+import { drawReport, type ReportPlan } from './sections';
 import { PAGE } from './theme';
 
 export interface ReportDocument {
@@ -19,7 +19,7 @@ export interface ReportDocument {
 	/** The consultant's text, paragraphs separated by blank lines. */
 	advice: string;
 	problemBands: ProblemBandView[];
-	plan?: { title: string; lines: string[] } | null;
+	plan?: ReportPlan | null;
 	/** Where the target comes from, named in the method (default ITU-R BS.1116-3). */
 	targetBasis?: string;
 }

@@ -31,8 +31,17 @@ export interface ReportContent {
 	comparison: ComparisonModel;
 	advice: string;
 	problemBands: ProblemBandView[];
-	plan: { title: string; lines: string[] } | null;
+	plan: ReportPlan | null;
 	targetBasis: string;
+}
+
+/** A plan in the report: what is planned, and optionally the predicted times per band. */
+export interface ReportPlan {
+	title: string;
+	lines: string[];
+	bands?: { bandHz: number; measuredBeforeS: number | null; predictedS: number | null; target: { lowerS: number; upperS: number } | null; measuredAfterS: number | null; differenceS: number | null }[];
+	method?: string;
+	cost?: string | null;
 }
 
 const RESPONSE_CHART_HEIGHT = 200;
@@ -230,18 +239,50 @@ export function drawProblemBands(pen: ReportPen, problemBands: readonly ProblemB
 	);
 }
 
-export function drawAdvice(pen: ReportPen, advice: string, plan: ReportContent['plan']): void {
+export function drawAdvice(pen: ReportPen, advice: string): void {
 	drawHeading(pen, 'Advice');
 	const paragraphs = splitParagraphs(advice);
 	if (paragraphs.length === 0) drawParagraphs(pen, ['No advice has been written yet.'], COLOURS.inkSoft);
 	else drawParagraphs(pen, paragraphs);
-	if (plan) {
-		pen.gap(6);
-		pen.ensureSpace(40);
-		pen.use('proseBold', TYPE.body + 1, COLOURS.ink).flow(plan.title);
+}
+
+/** The plan: its items as bullets, then per band the time before, predicted, the target and the result. */
+export function drawPlan(pen: ReportPen, plan: ReportPlan): void {
+	drawHeading(pen, plan.title, 40);
+	if (plan.lines.length === 0) drawParagraphs(pen, ['No steps listed.'], COLOURS.inkSoft);
+	else drawBullets(pen, plan.lines, COLOURS.inkSoft);
+	if (plan.cost) drawParagraphs(pen, [plan.cost]);
+	const bands = plan.bands ?? [];
+	if (bands.length > 0) {
+		const measuredAfter = bands.some((b) => b.measuredAfterS !== null);
+		const columns: TableColumn[] = [
+			{ header: 'Band', weight: 0.8, face: 'mono' },
+			{ header: 'Before (s)', weight: 1, align: 'right', face: 'mono' },
+			{ header: 'Predicted (s)', weight: 1, align: 'right', face: 'mono' },
+			{ header: 'Target (s)', weight: 1.1, align: 'right', face: 'mono' },
+			...(measuredAfter
+				? [
+						{ header: 'Measured after (s)', weight: 1.2, align: 'right', face: 'mono' } as TableColumn,
+						{ header: 'Difference (s)', weight: 1.1, align: 'right', face: 'mono' } as TableColumn
+					]
+				: [])
+		];
 		pen.gap(4);
-		if (plan.lines.length === 0) drawParagraphs(pen, ['No steps listed.'], COLOURS.inkSoft);
-		else drawBullets(pen, plan.lines, COLOURS.inkSoft);
+		drawTable(
+			pen,
+			columns,
+			bands.map((b) => [
+				bandName(b.bandHz),
+				formatNumber(b.measuredBeforeS, 2),
+				formatNumber(b.predictedS, 2),
+				b.target ? formatTargetRange(b.target.lowerS, b.target.upperS) : MISSING,
+				...(measuredAfter ? [formatNumber(b.measuredAfterS, 2), formatSigned(b.differenceS, 2)] : [])
+			])
+		);
+	}
+	if (plan.method) {
+		pen.gap(4);
+		pen.use('prose', TYPE.small, COLOURS.inkSoft).flow(plan.method);
 	}
 }
 
@@ -263,7 +304,8 @@ export function drawReport(pen: ReportPen, report: ReportContent): void {
 	drawCharts(pen, report, rows);
 	drawBandTable(pen, rows, report.comparison.target.length > 0);
 	drawProblemBands(pen, report.problemBands);
-	drawAdvice(pen, report.advice, report.plan);
+	drawAdvice(pen, report.advice);
+	if (report.plan) drawPlan(pen, report.plan);
 	drawMethod(pen, report, rows);
 	drawSafety(pen);
 }

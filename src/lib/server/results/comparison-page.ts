@@ -9,6 +9,9 @@ import { loadComparisonModel } from './load';
 import type { Scope } from '../auth/access';
 import type { ComparisonModel, SessionSummary } from '../../results/types';
 import { roleAllows } from '../../roles';
+import { loadPlanView } from '../plans/load';
+import { planReport, type PlanReport } from '../../plans/report';
+import { unitOfSystem } from '../../schemas/treatment';
 
 /**
  * Pages draw only the averaged responses, so each position's own curves are left out of what
@@ -20,7 +23,14 @@ function withoutPositionCurves(model: ComparisonModel): ComparisonModel {
 	return { ...model, baseline: slim(model.baseline), treated: slim(model.treated) };
 }
 
-export async function loadComparisonPage(k: Knex, scope: Scope, comparisonId: number, options: { positionCurves?: boolean } = {}) {
+/** The room's plan for the report, when the consultant chose to show it and it has items. */
+async function reportPlanOf(k: Knex, scope: Scope, roomId: number, organizationId: number, model: ComparisonModel): Promise<PlanReport | null> {
+	const view = await loadPlanView(k, roomId, organizationId, [model.baseline, model.treated]);
+	if (!view.plan.settings.includeInReport || view.plan.items.length === 0) return null;
+	return planReport(view.plan.items, view.evaluation, view.cost, view.plan.settings.currency, unitOfSystem(scope.user.unitSystem));
+}
+
+export async function loadComparisonPage(k: Knex, scope: Scope, comparisonId: number, options: { positionCurves?: boolean; withPlan?: boolean } = {}) {
 	const comparison = (await getComparison(k, comparisonId))!;
 	const internal = roleAllows(scope.role, 'project:internal');
 	// A client sees a comparison only once it is published, and never learns that a draft exists.
@@ -52,6 +62,7 @@ export async function loadComparisonPage(k: Knex, scope: Scope, comparisonId: nu
 		practiceName: organization.name as string,
 		model: options.positionCurves ? model : withoutPositionCurves(model),
 		problemBands: await listProblemBands(k, room.id),
+		plan: options.withPlan ? await reportPlanOf(k, scope, room.id, project.organizationId, model) : null,
 		qualityNotes,
 		can: {
 			review: roleAllows(scope.role, 'review:write'),

@@ -7,5 +7,5 @@ import type { PageServerLoad } from './$types';
 export const load = (async ({ locals, params }) => {
 	const comparisonId = Number(params.comparisonId);
 	const scope = await authorize(locals, 'project:read', { comparisonId });
-	return loadComparisonPage(db(), scope, comparisonId);
+	return loadComparisonPage(db(), scope, comparisonId, { withPlan: true });
 }) satisfies PageServerLoad;

@@ -8,7 +8,7 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = async ({ locals, params }) => {
 	const comparisonId = Number(params.comparisonId);
 	const scope = await authorize(locals, 'project:read', { comparisonId });
-	const page = await loadComparisonPage(db(), scope, comparisonId);
+	const page = await loadComparisonPage(db(), scope, comparisonId, { withPlan: true });
 	const pdf = await renderReportPdf({
 		practiceName: page.practiceName,
 		projectName: page.project.name,
@@ -18,7 +18,7 @@ export const GET: RequestHandler = async ({ locals, params }) => {
 		comparison: page.model,
 		advice: page.comparison.advice,
 		problemBands: page.problemBands,
-		plan: null
+		plan: page.plan
 	});
 	const name = `ringdown-report-${page.room.name.replace(/[^\w-]+/g, '-').toLowerCase()}.pdf`;
 	return new Response(pdf as Uint8Array<ArrayBuffer>, {

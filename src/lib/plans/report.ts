@@ -1,0 +1,61 @@
+// The plan as the client's report tells it: what was planned and where, in plain words, and the
+// predicted reverberation time per band beside the target and, once measured, the result.
+import type { LengthUnit } from '../treatment/units';
+import type { PlanEvaluation } from './evaluate';
+import { hzText, moneyText, sizeText } from './format';
+import { ITEM_KIND_LABELS, SURFACE_LABELS, type PlanItem } from './types';
+import type { PlanCost } from './build';
+
+export interface PlanReportBand {
+	bandHz: number;
+	measuredBeforeS: number | null;
+	predictedS: number | null;
+	target: { lowerS: number; upperS: number } | null;
+	measuredAfterS: number | null;
+	differenceS: number | null;
+}
+
+export interface PlanReport {
+	title: string;
+	/** One sentence per item. */
+	lines: string[];
+	bands: PlanReportBand[];
+	/** How the prediction was made, in one paragraph. */
+	method: string;
+	cost: string | null;
+	measuredAfter: boolean;
+}
+
+function itemLine(item: PlanItem, evaluation: PlanEvaluation, unit: LengthUnit): string {
+	const result = evaluation.items.find((r) => r.id === item.id);
+	const where = item.surface ? `on the ${SURFACE_LABELS[item.surface].toLowerCase()}` : 'free-standing';
+	const kind = ITEM_KIND_LABELS[item.params.kind].toLowerCase();
+	const acts = result?.actionRangeHz ? `, working from ${hzText(result.actionRangeHz.loHz)} to ${hzText(result.actionRangeHz.hiHz)}` : '';
+	const verb = item.params.kind === 'diffuser' ? 'scatters sound' : 'absorbs sound';
+	return `${item.quantity} × ${item.label} (${kind}, ${sizeText(item.widthMm, item.heightMm, unit)}) ${where}: ${verb}${acts}.`;
+}
+
+export function planReport(items: readonly PlanItem[], evaluation: PlanEvaluation, cost: PlanCost, currency: string, unit: LengthUnit): PlanReport {
+	const measuredAfter = evaluation.bands.some((b) => b.measuredAfterS !== null);
+	const formula = evaluation.bands[0]?.formula;
+	const formulaName = formula ? formula[0].toUpperCase() + formula.slice(1) : 'Sabine';
+	return {
+		title: 'Treatment plan',
+		lines: items.map((item) => itemLine(item, evaluation, unit)),
+		bands: evaluation.bands.map((b) => ({
+			bandHz: b.bandHz,
+			measuredBeforeS: b.measuredBeforeS,
+			predictedS: b.predictedS,
+			target: b.target ? { lowerS: b.target.lowerS, upperS: b.target.upperS } : null,
+			measuredAfterS: b.measuredAfterS,
+			differenceS: b.differenceS
+		})),
+		method:
+			`The prediction starts from the room as measured before treatment (${evaluation.calibration}) and adds the absorption of each planned item, ` +
+			`worked out from its construction (porous layers by Miki's model, panel traps by their mass–spring resonance, diffusers as a small planning value); ` +
+			`reverberation times by ${formulaName}'s formula with air absorption per ISO 9613-1.` +
+			(measuredAfter ? ' Measured after is the room measured again once the treatment was installed; the difference is predicted minus measured.' : ''),
+		cost: cost.priced ? `Materials estimate: ${moneyText(cost.total, currency)}${cost.unpriced.length ? ' (some items unpriced)' : ''}.` : null,
+		measuredAfter
+	};
+}
