@@ -69,8 +69,9 @@ export async function up(knex: Knex): Promise<void> {
 		t.string('label', 120).notNullable();
 		t.enum('surface', SURFACES).nullable();
 		t.integer('quantity').unsigned().notNullable();
-		t.decimal('width_mm', 8, 1).notNullable();
-		t.decimal('height_mm', 8, 1).notNullable();
+		// Two decimals keep inch sizes (1/16″ = 1.5875 mm) to within 0.005 mm.
+		t.decimal('width_mm', 9, 2).notNullable();
+		t.decimal('height_mm', 9, 2).notNullable();
 		// Kind-specific design parameters, validated by the application's schema on write and read.
 		t.json('params').notNullable();
 		t.decimal('unit_price', 12, 2).nullable();
@@ -84,9 +85,9 @@ export async function up(knex: Knex): Promise<void> {
 		t.increments('id').primary();
 		t.integer('plan_id').unsigned().notNullable().references('treatment_plans.id').onDelete('CASCADE');
 		t.string('label', 60).notNullable();
-		t.decimal('length_mm', 8, 1).notNullable();
-		t.decimal('width_mm', 8, 1).notNullable();
-		t.decimal('thickness_mm', 5, 2).notNullable();
+		t.decimal('length_mm', 9, 2).notNullable();
+		t.decimal('width_mm', 9, 2).notNullable();
+		t.decimal('thickness_mm', 6, 3).notNullable();
 		t.tinyint('finished_faces').unsigned().notNullable();
 		t.enum('grain', ['along-length', 'none']).notNullable();
 		t.decimal('price', 12, 2).nullable();

@@ -30,7 +30,7 @@ export async function seedDemoPlan(
 	await updatePlanSettings(trx, planId, { ...demoStoredPlan().settings, baselineSessionId: ids.baselineSessionId, afterSessionId: ids.afterSessionId }, ids.consultantId);
 	for (const { band, ...item } of DEMO_ITEMS) {
 		// A diffuser is as wide as its wells and fins make it (the service stores it the same way).
-		await insertItem(trx, planId, { ...item, widthMm: Math.round(unitWidthMm(item) * 10) / 10, problemBandId: band ? bandIds.get(band)! : null });
+		await insertItem(trx, planId, { ...item, widthMm: Math.round(unitWidthMm(item) * 100) / 100, problemBandId: band ? bandIds.get(band)! : null });
 	}
 	for (const s of DEMO_STOCK) await insertStock(trx, planId, s);
 }

@@ -1,7 +1,7 @@
 // From the plan's items to what the workshop needs: a build sheet per design, the parts of all
 // units together laid out on the stock sheets, the weight of each unit and the cost.
 import { diffuserBuildSheet, membraneTrapBuildSheet, porousFrameBuildSheet, WELL_SHIM_PART, type BuildSheet } from '../treatment/buildsheet';
-import { cutList, type CutList, type StockSheet } from '../treatment/cutlist';
+import { cutList, sameThickness, type CutList, type StockSheet } from '../treatment/cutlist';
 import { PANEL_STOCK } from '../treatment/membrane';
 import type { Part } from '../treatment/parts';
 import { diffuserDesignOf, panelStockOf } from './items';
@@ -118,7 +118,7 @@ export function missingStock(builds: readonly ItemBuild[], stock: readonly Stock
 	const need = new Map<number, number>();
 	for (const part of planParts(builds).filter((p) => !offSheet(p))) need.set(part.thicknessMm, Math.max(need.get(part.thicknessMm) ?? 0, part.finishedFaces));
 	return [...need]
-		.filter(([t, faces]) => !stock.some((s) => Math.abs(s.thicknessMm - t) < 1e-6 && s.finishedFaces >= faces))
+		.filter(([t, faces]) => !stock.some((s) => sameThickness(s.thicknessMm, t) && s.finishedFaces >= faces))
 		.map(([thicknessMm, finishedFaces]) => ({ thicknessMm, finishedFaces }))
 		.sort((a, b) => a.thicknessMm - b.thicknessMm);
 }

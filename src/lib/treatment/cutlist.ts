@@ -96,13 +96,21 @@ function checkStock(stock: readonly StockSheet[]): void {
 	}
 }
 
+/**
+ * Thicknesses this close are the same sheet: parts lists round to 0.1 mm, and imperial stock
+ * (3/4″ = 19.05 mm) must still match a part drawn from it.
+ */
+export const SAME_THICKNESS_MM = 0.1;
+
+export const sameThickness = (aMm: number, bMm: number): boolean => Math.abs(aMm - bMm) <= SAME_THICKNESS_MM + 1e-9;
+
 /** The cheapest stock (fewest finished faces) that has the thickness, the faces and the size for the part. */
 function stockFor(part: Part, stock: readonly StockSheet[]): StockSheet {
-	const sameThickness = stock.filter((s) => Math.abs(s.thicknessMm - part.thicknessMm) < 1e-6);
-	if (sameThickness.length === 0) {
+	const sameThicknessStock = stock.filter((s) => sameThickness(s.thicknessMm, part.thicknessMm));
+	if (sameThicknessStock.length === 0) {
 		throw new Error(`part "${part.name}" is ${part.thicknessMm} mm thick; no stock sheet has that thickness`);
 	}
-	const goodEnough = sameThickness.filter((s) => s.finishedFaces >= part.finishedFaces);
+	const goodEnough = sameThicknessStock.filter((s) => s.finishedFaces >= part.finishedFaces);
 	if (goodEnough.length === 0) {
 		throw new Error(`part "${part.name}" needs ${part.finishedFaces} finished face(s); no ${part.thicknessMm} mm stock has that many`);
 	}

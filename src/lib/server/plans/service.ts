@@ -119,7 +119,7 @@ export async function removeOpening(scope: Scope, roomId: number, openingId: num
 
 /** The stored shape of an item: a diffuser's width is its design's panel width. */
 function normalisedItem(item: ItemInput): ItemInput {
-	return item.params.kind === 'diffuser' ? { ...item, widthMm: Math.round(unitWidthMm(item) * 10) / 10 } : item;
+	return item.params.kind === 'diffuser' ? { ...item, widthMm: Math.round(unitWidthMm(item) * 100) / 100 } : item;
 }
 
 async function checkProblemBand(trx: Knex, roomId: number, bandId: number | null): Promise<void> {
