@@ -50,7 +50,7 @@ export const DEMO_ITEMS: DemoItem[] = [
 		unitPrice: 41,
 		band: 'low-mid',
 		why: 'Thick fibre with an air gap reaches down into the low mids and kills the flutter at the first-reflection points.',
-		params: { kind: 'porous', thicknessMm: 100, airGapMm: 50, flowResistivity: 15_000, presetId: 'rock-wool-40', frameThicknessMm: 18, fabricWrapped: true, withBack: false }
+		params: { kind: 'porous', thicknessMm: 100, airGapMm: 50, flowResistivity: 15_000, presetId: 'rock-wool-40', model: 'miki', frameThicknessMm: 18, fabricWrapped: true, withBack: false }
 	},
 	{
 		label: 'Right-wall absorbers',
@@ -61,7 +61,7 @@ export const DEMO_ITEMS: DemoItem[] = [
 		unitPrice: 41,
 		band: 'flutter',
 		why: 'Opposite the left-wall panels, so no bare pair of parallel walls is left.',
-		params: { kind: 'porous', thicknessMm: 100, airGapMm: 50, flowResistivity: 15_000, presetId: 'rock-wool-40', frameThicknessMm: 18, fabricWrapped: true, withBack: false }
+		params: { kind: 'porous', thicknessMm: 100, airGapMm: 50, flowResistivity: 15_000, presetId: 'rock-wool-40', model: 'miki', frameThicknessMm: 18, fabricWrapped: true, withBack: false }
 	},
 	{
 		label: 'Ceiling cloud',
@@ -72,7 +72,7 @@ export const DEMO_ITEMS: DemoItem[] = [
 		unitPrice: 46,
 		band: 'low-mid',
 		why: 'Hung 200 mm below the ceiling over the listening seat: the gap carries the absorption down an octave.',
-		params: { kind: 'porous', thicknessMm: 100, airGapMm: 200, flowResistivity: 15_000, presetId: 'rock-wool-40', frameThicknessMm: 18, fabricWrapped: true, withBack: false }
+		params: { kind: 'porous', thicknessMm: 100, airGapMm: 200, flowResistivity: 15_000, presetId: 'rock-wool-40', model: 'miki', frameThicknessMm: 18, fabricWrapped: true, withBack: false }
 	},
 	{
 		label: 'Rear diffuser',

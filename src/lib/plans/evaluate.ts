@@ -130,7 +130,7 @@ export function evaluatePlan(input: PlanInput): PlanEvaluation {
 		} catch (e) {
 			const error = `${item.label}: ${(e as Error).message}`;
 			problems.push(error);
-			return { id: item.id, error, coefficients: PLANNING_BANDS_HZ.map(() => 0), totalAreaM2: 0, actionRangeHz: null, method: '', warnings: [], diffuser: null };
+			return { id: item.id, error, coefficients: PLANNING_BANDS_HZ.map(() => 0), normalIncidence: null, totalAreaM2: 0, actionRangeHz: null, method: '', warnings: [], diffuser: null };
 		}
 	});
 

@@ -28,6 +28,7 @@ export function itemFormValues(item: ItemDraft, unit: LengthUnit): FormValues {
 				thicknessMm: len(p.thicknessMm),
 				airGapMm: len(p.airGapMm),
 				preset: p.presetId ?? '',
+				model: p.model ?? 'miki',
 				flowResistivityKPa: p.presetId ? '' : String(p.flowResistivity / 1000),
 				frameThicknessMm: len(p.frameThicknessMm),
 				fabricWrapped: p.fabricWrapped ? 'on' : '',
@@ -67,7 +68,7 @@ export const NEW_ITEM: Record<ItemKind, ItemDraft> = {
 		unitPrice: null,
 		problemBandId: null,
 		why: null,
-		params: { kind: 'porous', thicknessMm: 100, airGapMm: 0, flowResistivity: 15_000, presetId: 'rock-wool-40', frameThicknessMm: 18, fabricWrapped: true, withBack: false }
+		params: { kind: 'porous', thicknessMm: 100, airGapMm: 0, flowResistivity: 15_000, presetId: 'rock-wool-40', model: 'miki', frameThicknessMm: 18, fabricWrapped: true, withBack: false }
 	},
 	membrane: {
 		label: 'Panel trap',

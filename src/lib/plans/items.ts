@@ -18,6 +18,8 @@ import type { DiffuserParams, ItemParams, MembraneParams, PlanItem, PorousParams
 export interface ItemAcoustics {
 	/** Random-incidence absorption per planning band, referred to the face area. */
 	coefficients: number[];
+	/** Normal-incidence absorption per band, where the model gives one (porous layers). */
+	normalIncidence: number[] | null;
 	/** Face area of all units together, m². */
 	totalAreaM2: number;
 	actionRangeHz: { loHz: number; hiHz: number } | null;
@@ -31,8 +33,13 @@ export interface ItemAcoustics {
 const hz = (f: number) => (f >= 1000 ? `${(f / 1000).toFixed(1)} kHz` : `${f.toFixed(0)} Hz`);
 
 export function porousLayerOf(p: PorousParams): Required<PorousLayer> {
-	return { flowResistivity: p.flowResistivity, thicknessM: p.thicknessMm / 1000, airGapM: p.airGapMm / 1000, model: 'miki' };
+	return { flowResistivity: p.flowResistivity, thicknessM: p.thicknessMm / 1000, airGapM: p.airGapMm / 1000, model: p.model ?? 'miki' };
 }
+
+const MODEL_NAMES = {
+	miki: "Miki's model (JASJ(E) 11:19, 1990)",
+	'delany-bazley': "Delany & Bazley's model (Appl. Acoust. 3:105, 1970)"
+} as const;
 
 /**
  * The first unbroken range where α ≥ POROUS_TARGET_ALPHA, scanned in 1/12-octave steps from
@@ -57,13 +64,15 @@ function porousRange(layer: PorousLayer, air: AirProperties): { loHz: number; hi
 function porousAcoustics(p: PorousParams, air: AirProperties): Omit<ItemAcoustics, 'totalAreaM2'> {
 	const layer = porousLayerOf(p);
 	const { coefficients, warnings } = porousBandAbsorption(layer, { air });
+	const normal = porousBandAbsorption(layer, { air, incidence: 'normal' }).coefficients;
 	const preset = POROUS_PRESETS.find((x) => x.id === p.presetId);
 	const material = preset ? preset.name : `fibre σ = ${(p.flowResistivity / 1000).toFixed(1)} kPa·s/m²`;
 	const range = porousRange(layer, air);
 	return {
 		coefficients,
 		actionRangeHz: range,
-		method: `${material}, ${p.thicknessMm} mm${p.airGapMm > 0 ? ` + ${p.airGapMm} mm air gap` : ' on the wall'}: Miki model, layer and gap by transfer matrix, random incidence by Paris' formula${range ? `; α ≥ ${POROUS_TARGET_ALPHA} from ${hz(range.loHz)}` : ''}.`,
+		normalIncidence: normal,
+		method: `${material}, ${p.thicknessMm} mm${p.airGapMm > 0 ? ` + ${p.airGapMm} mm air gap` : ' on the wall'}: ${MODEL_NAMES[layer.model]}, layer and gap by transfer matrix (rigid backing), random incidence by Paris' formula from the normal-incidence surface impedance${range ? `; α ≥ ${POROUS_TARGET_ALPHA} from ${hz(range.loHz)}` : ''}.`,
 		warnings,
 		diffuser: null
 	};
@@ -84,7 +93,8 @@ function membraneAcoustics(p: MembraneParams, air: AirProperties): Omit<ItemAcou
 	return {
 		coefficients: membraneBandAbsorption(trap, air),
 		actionRangeHz: membraneActionRangeHz(f0),
-		method: `${p.panelThicknessMm} mm ${stock.name.toLowerCase()} (m′ = ${mass.toFixed(1)} kg/m²) over ${p.cavityDepthMm} mm ${p.cavityFill === 'porous' ? 'fibre-filled' : 'empty'} cavity: f0 = ${formula} ≈ ${f0.toFixed(0)} Hz; planning absorption curve peaking at 0.4.`,
+		normalIncidence: null,
+		method: `${p.panelThicknessMm} mm ${stock.name.toLowerCase()} (m′ = ${mass.toFixed(1)} kg/m²) over ${p.cavityDepthMm} mm ${p.cavityFill === 'porous' ? 'fibre-filled' : 'empty'} cavity: f0 = ${formula} ≈ ${f0.toFixed(0)} Hz, the panel's mass on the cavity's air spring (Everest & Pohlmann, Master Handbook of Acoustics); planning absorption curve peaking at 0.4 (common practice, no source).`,
 		warnings: membraneModelWarnings(trap, air),
 		diffuser: null
 	};
@@ -107,6 +117,7 @@ function diffuserAcoustics(p: DiffuserParams, air: AirProperties): Omit<ItemAcou
 	const name = p.sequence === 'quadratic-residue' ? 'Quadratic-residue' : 'Primitive-root';
 	return {
 		coefficients: PLANNING_BANDS_HZ.map(() => DIFFUSER_ABSORPTION_ESTIMATE),
+		normalIncidence: null,
 		actionRangeHz: design.workingRangeHz,
 		method: `${name} sequence N = ${p.prime}, f0 = ${hz(design.designFrequencyHz)}, ${p.wellWidthMm} mm wells: scatters ${hz(design.workingRangeHz.loHz)}–${hz(design.workingRangeHz.hiHz)}; absorbs about ${DIFFUSER_ABSORPTION_ESTIMATE} (planning value).`,
 		warnings: design.warnings,

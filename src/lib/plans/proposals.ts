@@ -35,6 +35,7 @@ export function draftFromProposal(proposal: Proposal, problemBandId: number | nu
 					airGapMm: Math.round(proposal.layer.airGapM * 1000),
 					flowResistivity: proposal.layer.flowResistivity,
 					presetId: null,
+					model: proposal.layer.model,
 					frameThicknessMm: DRAFT_FRAME_MM,
 					fabricWrapped: true,
 					withBack: proposal.layer.airGapM > 0
@@ -65,7 +66,8 @@ export function draftFromProposal(proposal: Proposal, problemBandId: number | nu
 					designFrequencyHz: Math.round(proposal.diffuser.requestedDesignFrequencyHz),
 					wellWidthMm: Math.round(proposal.diffuser.wellWidthM * 1000),
 					finThicknessMm: Math.round(proposal.diffuser.finThicknessM * 1000 * 10) / 10,
-					maxDepthMm: null,
+					// A design frequency raised to fit a depth limit keeps that limit, so the built panel is the proposed one.
+					maxDepthMm: proposal.diffuser.designFrequencyHz > proposal.diffuser.requestedDesignFrequencyHz ? Math.floor(proposal.diffuser.deepestWellM * 10000) / 10 : null,
 					boardThicknessMm: DRAFT_BOARD_MM
 				}
 			};

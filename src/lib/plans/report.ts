@@ -5,6 +5,7 @@ import type { PlanEvaluation } from './evaluate';
 import { hzText, moneyText, sizeText } from './format';
 import { ITEM_KIND_LABELS, SURFACE_LABELS, type PlanItem } from './types';
 import type { PlanCost } from './build';
+import { unitWidthMm } from './items';
 
 export interface PlanReportBand {
 	bandHz: number;
@@ -32,13 +33,25 @@ function itemLine(item: PlanItem, evaluation: PlanEvaluation, unit: LengthUnit):
 	const kind = ITEM_KIND_LABELS[item.params.kind].toLowerCase();
 	const acts = result?.actionRangeHz ? `, working from ${hzText(result.actionRangeHz.loHz)} to ${hzText(result.actionRangeHz.hiHz)}` : '';
 	const verb = item.params.kind === 'diffuser' ? 'scatters sound' : 'absorbs sound';
-	return `${item.quantity} × ${item.label} (${kind}, ${sizeText(item.widthMm, item.heightMm, unit)}) ${where}: ${verb}${acts}.`;
+	return `${item.quantity} × ${item.label} (${kind}, ${sizeText(unitWidthMm(item), item.heightMm, unit)}) ${where}: ${verb}${acts}.`;
+}
+
+function predictionMethod(evaluation: PlanEvaluation, measuredAfter: boolean): string {
+	if (evaluation.problems.length > 0) return `No prediction yet: ${evaluation.problems[0]}.`;
+	const formula = evaluation.bands[0].formula;
+	const start =
+		evaluation.calibration === 'assumed finishes only'
+			? 'The prediction starts from the room as its surfaces and finishes make it (it has not been measured before treatment)'
+			: `The prediction starts from the room as measured before treatment${evaluation.calibration === 'partly measured' ? ' (in the bands that could be measured; the others from its finishes)' : ''}`;
+	return (
+		`${start} and adds the absorption of each planned item, worked out from its construction (porous layers by an empirical fibre model, ` +
+		`panel traps by their mass–spring resonance, diffusers as a small planning value); reverberation times by ${formula[0].toUpperCase()}${formula.slice(1)}'s formula with air absorption per ISO 9613-1.` +
+		(measuredAfter ? ' Measured after is the room measured again once the treatment was installed; the difference is predicted minus measured.' : '')
+	);
 }
 
 export function planReport(items: readonly PlanItem[], evaluation: PlanEvaluation, cost: PlanCost, currency: string, unit: LengthUnit): PlanReport {
 	const measuredAfter = evaluation.bands.some((b) => b.measuredAfterS !== null);
-	const formula = evaluation.bands[0]?.formula;
-	const formulaName = formula ? formula[0].toUpperCase() + formula.slice(1) : 'Sabine';
 	return {
 		title: 'Treatment plan',
 		lines: items.map((item) => itemLine(item, evaluation, unit)),
@@ -50,11 +63,7 @@ export function planReport(items: readonly PlanItem[], evaluation: PlanEvaluatio
 			measuredAfterS: b.measuredAfterS,
 			differenceS: b.differenceS
 		})),
-		method:
-			`The prediction starts from the room as measured before treatment (${evaluation.calibration}) and adds the absorption of each planned item, ` +
-			`worked out from its construction (porous layers by Miki's model, panel traps by their mass–spring resonance, diffusers as a small planning value); ` +
-			`reverberation times by ${formulaName}'s formula with air absorption per ISO 9613-1.` +
-			(measuredAfter ? ' Measured after is the room measured again once the treatment was installed; the difference is predicted minus measured.' : ''),
+		method: predictionMethod(evaluation, measuredAfter),
 		cost: cost.priced ? `Materials estimate: ${moneyText(cost.total, currency)}${cost.unpriced.length ? ' (some items unpriced)' : ''}.` : null,
 		measuredAfter
 	};

@@ -3,6 +3,7 @@
 import type { CavityFill } from '../treatment/membrane';
 import type { DiffuserKind } from '../treatment/diffuser';
 import type { Material } from '../treatment/materials';
+import type { PorousModel } from '../treatment/porous';
 import type { SurfaceId } from '../treatment/surfaces';
 
 export const ITEM_KINDS = ['porous', 'membrane', 'diffuser'] as const;
@@ -32,6 +33,8 @@ export interface PorousParams {
 	flowResistivity: number;
 	/** The preset σ came from, if any (for the label). */
 	presetId: string | null;
+	/** Empirical model of the fibre: Miki (default; stays physical outside the fitted range) or Delany–Bazley. */
+	model: PorousModel;
 	frameThicknessMm: number;
 	fabricWrapped: boolean;
 	withBack: boolean;

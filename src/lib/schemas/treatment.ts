@@ -7,8 +7,11 @@ import { MATERIALS } from '../treatment/materials';
 import { PANEL_STOCK } from '../treatment/membrane';
 import { POROUS_PRESETS } from '../treatment/porous';
 import { SURFACE_IDS, type SurfaceId } from '../treatment/surfaces';
-import { formatLength, parseLength, type LengthUnit } from '../treatment/units';
+import { formatLength, MM_PER_INCH, parseLength, type LengthUnit } from '../treatment/units';
 import { ITEM_KINDS } from '../plans/types';
+
+/** Empirical models of a porous layer the plan offers (src/lib/treatment/porous.ts). */
+export const POROUS_MODELS = ['miki', 'delany-bazley'] as const;
 
 /** Lengths a bare number means: millimetres or inches for built things, metres or inches for openings. */
 export type BareUnit = 'mm' | 'm' | 'in';
@@ -45,6 +48,9 @@ const BARE_NUMBER = /^\s*(\d+(?:[.,]\d*)?|[.,]\d+)\s*$/;
 
 /** A length field: text in any unit, parsed to millimetres and checked against its limits. */
 export function lengthField(label: string, bare: BareUnit, limits: { min: number; max: number }, display: LengthUnit = bare === 'in' ? 'in' : 'mm') {
+	// Inch values are shown to 1/16″ (messages) or 1/32″ (forms): a limit written that way may lie
+	// up to half a sixteenth beyond the exact one, and is taken as the limit.
+	const slack = display === 'in' ? MM_PER_INCH / 32 : 0;
 	return z
 		.string({ error: `Enter the ${label}.` })
 		.trim()
@@ -58,16 +64,23 @@ export function lengthField(label: string, bare: BareUnit, limits: { min: number
 				return z.NEVER;
 			}
 		})
-		.refine((mm) => mm >= limits.min && mm <= limits.max, {
+		.refine((mm) => mm >= limits.min - slack && mm <= limits.max + slack, {
 			error: `The ${label} must lie between ${formatLength(limits.min, display)} and ${formatLength(limits.max, display)}.`
-		});
+		})
+		.transform((mm) => Math.min(Math.max(mm, limits.min), limits.max));
 }
 
+/** A blank field is missing, not 0 (coercion alone would read "" as 0). */
+const blankAsMissing = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
+
 const number = (label: string, limits: { min: number; max: number }, unit = '') =>
-	z.coerce
-		.number({ error: `Enter the ${label}.` })
-		.refine(Number.isFinite, { error: `Enter the ${label} as a number.` })
-		.refine((v) => v >= limits.min && v <= limits.max, { error: `The ${label} must lie between ${limits.min} and ${limits.max}${unit}.` });
+	z.preprocess(
+		blankAsMissing,
+		z.coerce
+			.number({ error: `Enter the ${label}.` })
+			.refine(Number.isFinite, { error: `Enter the ${label} as a number.` })
+			.refine((v) => v >= limits.min && v <= limits.max, { error: `The ${label} must lie between ${limits.min} and ${limits.max}${unit}.` })
+	);
 
 const optionalPrice = z
 	.union([z.literal(''), z.coerce.number()])
@@ -99,6 +112,7 @@ export const porousParamsSchema = z.object({
 	airGapMm: z.number().min(LIMITS.airGapMm.min).max(LIMITS.airGapMm.max),
 	flowResistivity: z.number().min(LIMITS.flowResistivityKPa.min * 1000).max(LIMITS.flowResistivityKPa.max * 1000),
 	presetId: z.string().nullable(),
+	model: z.enum(POROUS_MODELS).default('miki'),
 	frameThicknessMm: z.number().min(LIMITS.frameThicknessMm.min).max(LIMITS.frameThicknessMm.max),
 	fabricWrapped: z.boolean(),
 	withBack: z.boolean()
@@ -165,10 +179,11 @@ export function itemFormSchema(unit: LengthUnit) {
 			.refine((v) => v === null || (Number.isFinite(v) && v >= LIMITS.flowResistivityKPa.min && v <= LIMITS.flowResistivityKPa.max), {
 				error: `Flow resistivity between ${LIMITS.flowResistivityKPa.min} and ${LIMITS.flowResistivityKPa.max} kPa·s/m².`
 			}),
+		model: z.enum(POROUS_MODELS, { error: "Pick Miki's or Delany and Bazley's model." }).optional().default('miki'),
 		frameThicknessMm: lengthField('frame thickness', bare, LIMITS.frameThicknessMm),
 		fabricWrapped: checkbox,
 		withBack: checkbox
-	});
+	}).refine((v) => v.preset !== null || v.flowResistivityKPa !== null, { path: ['flowResistivityKPa'], error: 'Pick a fibre from the list, or give its flow resistivity.' });
 	const membrane = z.object({
 		...common,
 		kind: z.literal('membrane'),
@@ -207,8 +222,9 @@ export function itemFormSchema(unit: LengthUnit) {
 					thicknessMm: v.thicknessMm,
 					airGapMm: v.airGapMm,
 					// A typed σ wins over the preset it may have started from.
-					flowResistivity: v.flowResistivityKPa !== null ? v.flowResistivityKPa * 1000 : (preset?.flowResistivity ?? 10_000),
+					flowResistivity: v.flowResistivityKPa !== null ? v.flowResistivityKPa * 1000 : preset!.flowResistivity,
 					presetId: v.flowResistivityKPa !== null && preset && preset.flowResistivity !== v.flowResistivityKPa * 1000 ? null : (preset?.id ?? null),
+					model: v.model,
 					frameThicknessMm: v.frameThicknessMm,
 					fabricWrapped: v.fabricWrapped,
 					withBack: v.withBack
@@ -268,10 +284,13 @@ export const finishFormSchema = z.object({
 });
 
 const coefficient = (bandHz: number) =>
-	z.coerce
-		.number({ error: `Enter the coefficient at ${bandHz} Hz.` })
-		.refine(Number.isFinite, { error: `Enter the coefficient at ${bandHz} Hz.` })
-		.refine((v) => v >= 0 && v <= 1, { error: `The coefficient at ${bandHz} Hz must lie between 0 and 1 (values above 1 are a measurement artefact).` });
+	z.preprocess(
+		blankAsMissing,
+		z.coerce
+			.number({ error: `Enter the coefficient at ${bandHz} Hz.` })
+			.refine(Number.isFinite, { error: `Enter the coefficient at ${bandHz} Hz.` })
+			.refine((v) => v >= 0 && v <= 1, { error: `The coefficient at ${bandHz} Hz must lie between 0 and 1 (values above 1 are a measurement artefact).` })
+	);
 
 /** A material typed in by the user: six coefficients 125 Hz … 4 kHz and where they come from. */
 export const customMaterialSchema = z.object({
@@ -295,7 +314,7 @@ export function stockFormSchema(unit: LengthUnit) {
 		lengthMm: lengthField('sheet length', bare, LIMITS.sheetSideMm),
 		widthMm: lengthField('sheet width', bare, LIMITS.sheetSideMm),
 		thicknessMm: lengthField('sheet thickness', bare, LIMITS.sheetThicknessMm),
-		finishedFaces: z.coerce.number().pipe(z.union([z.literal(0), z.literal(1), z.literal(2)], { error: 'Say how many faces are good: 0, 1 or 2.' })),
+		finishedFaces: z.enum(['0', '1', '2'], { error: 'Say how many faces are good: 0, 1 or 2.' }).transform((v) => Number(v) as 0 | 1 | 2),
 		grain: z.enum(['along-length', 'none'], { error: 'Say whether the sheet has a grain.' }),
 		price: optionalPrice
 	});
