@@ -3,6 +3,7 @@ import type { Knex } from 'knex';
 import { insertItem, insertOpening, insertStock, setSurfaceFinish, updatePlanSettings } from '../../src/lib/server/queries/plans';
 import { SURFACE_IDS } from '../../src/lib/treatment/surfaces';
 import { unitWidthMm } from '../../src/lib/plans/items';
+import { createProblemBand } from '../../src/lib/server/queries/reviews';
 import { demoStoredPlan, DEMO_ITEMS, DEMO_OPENINGS, DEMO_PROBLEM_BANDS, DEMO_STOCK, DEMO_FINISHES } from './plan';
 
 export async function seedDemoPlan(
@@ -10,18 +11,8 @@ export async function seedDemoPlan(
 	ids: { roomId: number; consultantId: number; baselineSessionId: number; afterSessionId: number }
 ): Promise<void> {
 	const bandIds = new Map<string, number>();
-	for (const { key, ...b } of DEMO_PROBLEM_BANDS) {
-		const [id] = await trx('problem_bands').insert({
-			room_id: ids.roomId,
-			f_lo_hz: b.fLoHz,
-			f_hi_hz: b.fHiHz,
-			t_lo_ms: b.tLoMs,
-			t_hi_ms: b.tHiMs,
-			severity: b.severity,
-			note: b.note,
-			author_id: ids.consultantId
-		});
-		bandIds.set(key, id);
+	for (const { key, ...band } of DEMO_PROBLEM_BANDS) {
+		bandIds.set(key, await createProblemBand(trx, ids.roomId, { ...band, comparisonId: null, authorId: ids.consultantId }));
 	}
 	for (const surface of SURFACE_IDS) await setSurfaceFinish(trx, ids.roomId, surface, { builtin: DEMO_FINISHES[surface] });
 	for (const { materialKey, ...o } of DEMO_OPENINGS) await insertOpening(trx, ids.roomId, o, { builtin: materialKey });

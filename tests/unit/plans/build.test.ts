@@ -10,8 +10,7 @@ import {
 	separateParts,
 	stockSheetsOf
 } from '../../../src/lib/plans/build';
-import type { CutList } from '../../../src/lib/treatment/cutlist';
-import type { Part } from '../../../src/lib/treatment/parts';
+import { expectValidLayout } from '../treatment/helpers/layout';
 import { demoLikeItems, item, MEMBRANE, POROUS, QRD7, STOCK, STOCK_18_ONE_FACE, STOCK_18_UTILITY, STOCK_6_TWO_FACES } from './fixtures';
 
 const KERF = 3;
@@ -84,43 +83,6 @@ describe('parts of the whole plan', () => {
 	});
 });
 
-/** Every property a two-stage guillotine layout of these parts must have. */
-function expectValidLayout(cut: CutList, parts: readonly Part[], kerf: number) {
-	const total = parts.reduce((n, p) => n + p.quantity, 0);
-	const placements = cut.sheets.flatMap((s) => s.placements.map((p) => ({ ...p, sheet: s })));
-	expect(placements).toHaveLength(total);
-	expect(new Set(placements.map((p) => p.pieceIndex)).size).toBe(total);
-	// Each part's pieces, by name and size, placed exactly as often as its quantity.
-	for (const part of parts) {
-		const n = placements.filter((p) => p.name === part.name && p.part.lengthMm === part.lengthMm && p.part.widthMm === part.widthMm && p.part.thicknessMm === part.thicknessMm).length;
-		expect(n).toBe(parts.filter((q) => q.name === part.name && q.lengthMm === part.lengthMm && q.widthMm === part.widthMm && q.thicknessMm === part.thicknessMm).reduce((s, q) => s + q.quantity, 0));
-	}
-	const partsArea = parts.reduce((s, p) => s + p.quantity * p.lengthMm * p.widthMm, 0);
-	expect(placements.reduce((s, p) => s + p.lengthMm * p.widthMm, 0)).toBeCloseTo(partsArea, 6);
-	for (const p of placements) {
-		const { stock } = p.sheet;
-		expect(p.x).toBeGreaterThanOrEqual(0);
-		expect(p.y).toBeGreaterThanOrEqual(0);
-		expect(p.x + p.lengthMm).toBeLessThanOrEqual(stock.lengthMm + 1e-9);
-		expect(p.y + p.widthMm).toBeLessThanOrEqual(stock.widthMm + 1e-9);
-		expect(stock.thicknessMm).toBe(p.part.thicknessMm);
-		expect(stock.finishedFaces).toBeGreaterThanOrEqual(p.part.finishedFaces);
-	}
-	for (const sheet of cut.sheets) {
-		const ps = sheet.placements;
-		for (let i = 0; i < ps.length; i++) {
-			for (let j = i + 1; j < ps.length; j++) {
-				const [a, b] = [ps[i], ps[j]];
-				const apart =
-					a.x + a.lengthMm + kerf <= b.x + 1e-9 ||
-					b.x + b.lengthMm + kerf <= a.x + 1e-9 ||
-					a.y + a.widthMm + kerf <= b.y + 1e-9 ||
-					b.y + b.widthMm + kerf <= a.y + 1e-9;
-				expect(apart, `${a.name} and ${b.name} on ${sheet.stock.id} #${sheet.sheetNumber}`).toBe(true);
-			}
-		}
-	}
-}
 
 /** Sheets a naive layout needs: each piece in its own full-length strip (narrow side across), strips stacked. */
 function naiveSheetCount(pieces: readonly { lengthMm: number; widthMm: number }[], sheetWidthMm: number, kerf: number): number {

@@ -2,77 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { planBuilds, planCutList, separateParts } from '../../../src/lib/plans/build';
 import { cutListCsv, cutPieceRows, type CutPieceRow } from '../../../src/lib/plans/exports';
 import { item, POROUS, QRD7, STOCK } from './fixtures';
-
-/**
- * A small RFC 4180 §2 reader: records end in CRLF (rule 1, the last one optionally), fields are
- * split by commas (rule 4), a quoted field may hold commas, CR, LF (rule 6) and doubled quotes
- * for a quote (rule 7). Throws on a bare LF or a stray quote, which RFC 4180 forbids.
- */
-function parseCsv(text: string): string[][] {
-	const records: string[][] = [];
-	let record: string[] = [];
-	let field = '';
-	let quoted = false;
-	let i = 0;
-	while (i < text.length) {
-		const c = text[i];
-		if (quoted) {
-			if (c === '"' && text[i + 1] === '"') {
-				field += '"';
-				i += 2;
-			} else if (c === '"') {
-				quoted = false;
-				i++;
-				if (i < text.length && text[i] !== ',' && text[i] !== '\r') throw new Error(`character after a closing quote at ${i}`);
-			} else {
-				field += c;
-				i++;
-			}
-		} else if (c === '"') {
-			if (field !== '') throw new Error(`quote inside an unquoted field at ${i}`);
-			quoted = true;
-			i++;
-		} else if (c === ',') {
-			record.push(field);
-			field = '';
-			i++;
-		} else if (c === '\r' && text[i + 1] === '\n') {
-			record.push(field);
-			records.push(record);
-			record = [];
-			field = '';
-			i += 2;
-		} else if (c === '\n' || c === '\r') {
-			throw new Error(`bare line break outside quotes at ${i}`);
-		} else {
-			field += c;
-			i++;
-		}
-	}
-	if (quoted) throw new Error('unterminated quoted field');
-	if (field !== '' || record.length > 0) records.push([...record, field]);
-	return records;
-}
-
-function table(text: string): Record<string, string>[] {
-	const [header, ...rows] = parseCsv(text);
-	for (const row of rows) expect(row).toHaveLength(header.length); // RFC 4180 §2 rule 4
-	return rows.map((row) => Object.fromEntries(header.map((name, i) => [name, row[i]])));
-}
-
-describe('the test’s RFC 4180 reader itself', () => {
-	it.each([
-		{ text: 'a,b\r\n1,2\r\n', records: [['a', 'b'], ['1', '2']] },
-		{ text: '"x, y","say ""hi"""\r\n', records: [['x, y', 'say "hi"']] },
-		{ text: 'a,,c\r\n', records: [['a', '', 'c']] }
-	])('reads $text', ({ text, records }) => {
-		expect(parseCsv(text)).toEqual(records);
-	});
-
-	it('refuses a bare LF', () => {
-		expect(() => parseCsv('a\nb')).toThrow(/bare line break/);
-	});
-});
+import { csvTable as table, parseCsv } from '../../helpers/rfc4180';
 
 // Two absorbers and a high diffuser whose s = 5 well is a shim (see build.test.ts): one label has
 // a comma and quotes, to be quoted in the file.

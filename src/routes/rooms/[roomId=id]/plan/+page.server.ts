@@ -10,7 +10,6 @@ import {
 	addItem,
 	addOpening,
 	changeItem,
-	PlanProblem,
 	removeCustomMaterial,
 	removeItem,
 	removeOpening,
@@ -18,6 +17,7 @@ import {
 	setFinish
 } from '$lib/server/plans/service';
 import { planUnit } from '$lib/server/plans/units';
+import { planChange } from '$lib/server/plans/actions';
 import { proposalsForBand } from '$lib/plans/proposals';
 import { coefficientsOf, customMaterialSchema, finishFormSchema, idFieldSchema, itemFormSchema, openingFormSchema, planSettingsSchema } from '$lib/schemas/treatment';
 import { MATERIALS } from '$lib/treatment/materials';
@@ -47,17 +47,6 @@ export const load = (async ({ locals, params, url }) => {
 	};
 }) satisfies PageServerLoad;
 
-/** Runs a plan change and turns a refused one into a form failure; the form's id says which form it was. */
-async function attempt(form: FormData, work: () => Promise<unknown>) {
-	try {
-		await work();
-		return null;
-	} catch (e) {
-		if (e instanceof PlanProblem) return formFail(e.status, form, e.message, e.field ? { [e.field]: e.message } : {});
-		throw e;
-	}
-}
-
 async function editor(locals: App.Locals, params: { roomId: string }): Promise<{ scope: Scope; roomId: number }> {
 	const roomId = Number(params.roomId);
 	return { scope: await authorize(locals, 'review:write', { roomId }), roomId };
@@ -74,7 +63,7 @@ export const actions = {
 		const form = await request.formData();
 		const parsed = parseForm(planSettingsSchema(planUnit(form, scope)).omit({ kerfMm: true }), form);
 		if (!parsed.ok) return parsed.failure;
-		return (await attempt(form, () => savePlanSettings(scope, roomId, parsed.data))) ?? { saved: 'settings' };
+		return planChange(form, () => savePlanSettings(scope, roomId, parsed.data), 'settings');
 	},
 
 	setFinish: async ({ locals, params, request }) => {
@@ -82,7 +71,7 @@ export const actions = {
 		const form = await request.formData();
 		const parsed = parseForm(finishFormSchema, form);
 		if (!parsed.ok) return parsed.failure;
-		return (await attempt(form, () => setFinish(scope, roomId, parsed.data.surface, parsed.data.materialKey))) ?? { saved: 'finish' };
+		return planChange(form, () => setFinish(scope, roomId, parsed.data.surface, parsed.data.materialKey), 'finish');
 	},
 
 	addOpening: async ({ locals, params, request }) => {
@@ -90,7 +79,7 @@ export const actions = {
 		const form = await request.formData();
 		const parsed = parseForm(openingFormSchema(planUnit(form, scope)), form);
 		if (!parsed.ok) return parsed.failure;
-		return (await attempt(form, () => addOpening(scope, roomId, parsed.data))) ?? { saved: 'opening' };
+		return planChange(form, () => addOpening(scope, roomId, parsed.data), 'opening');
 	},
 
 	removeOpening: async ({ locals, params, request }) => {
@@ -98,7 +87,7 @@ export const actions = {
 		const form = await request.formData();
 		const id = idOf(form, 'openingId');
 		if (id === null) return formFail(400, form, 'Say which opening to remove.');
-		return (await attempt(form, () => removeOpening(scope, roomId, id))) ?? { saved: 'opening-removed' };
+		return planChange(form, () => removeOpening(scope, roomId, id), 'opening-removed');
 	},
 
 	addMaterial: async ({ locals, params, request }) => {
@@ -107,7 +96,7 @@ export const actions = {
 		const parsed = parseForm(customMaterialSchema, form);
 		if (!parsed.ok) return parsed.failure;
 		const m = parsed.data;
-		return (await attempt(form, () => addCustomMaterial(scope, { name: m.name, source: m.source, coefficients: coefficientsOf(m) }))) ?? { saved: 'material' };
+		return planChange(form, () => addCustomMaterial(scope, { name: m.name, source: m.source, coefficients: coefficientsOf(m) }), 'material');
 	},
 
 	removeMaterial: async ({ locals, params, request }) => {
@@ -115,7 +104,7 @@ export const actions = {
 		const form = await request.formData();
 		const id = idOf(form, 'materialId');
 		if (id === null) return formFail(400, form, 'Say which material to remove.');
-		return (await attempt(form, () => removeCustomMaterial(scope, id))) ?? { saved: 'material-removed' };
+		return planChange(form, () => removeCustomMaterial(scope, id), 'material-removed');
 	},
 
 	addItem: async ({ locals, params, request }) => {
@@ -123,7 +112,7 @@ export const actions = {
 		const form = await request.formData();
 		const parsed = parseForm(itemFormSchema(planUnit(form, scope)), form);
 		if (!parsed.ok) return parsed.failure;
-		return (await attempt(form, () => addItem(scope, roomId, parsed.data))) ?? { saved: 'item' };
+		return planChange(form, () => addItem(scope, roomId, parsed.data), 'item');
 	},
 
 	updateItem: async ({ locals, params, request }) => {
@@ -133,7 +122,7 @@ export const actions = {
 		if (id === null) return formFail(400, form, 'Say which item to change.');
 		const parsed = parseForm(itemFormSchema(planUnit(form, scope)), form);
 		if (!parsed.ok) return parsed.failure;
-		return (await attempt(form, () => changeItem(scope, roomId, id, parsed.data))) ?? { saved: 'item' };
+		return planChange(form, () => changeItem(scope, roomId, id, parsed.data), 'item');
 	},
 
 	removeItem: async ({ locals, params, request }) => {
@@ -141,6 +130,6 @@ export const actions = {
 		const form = await request.formData();
 		const id = idOf(form, 'itemId');
 		if (id === null) return formFail(400, form, 'Say which item to remove.');
-		return (await attempt(form, () => removeItem(scope, roomId, id))) ?? { saved: 'item-removed' };
+		return planChange(form, () => removeItem(scope, roomId, id), 'item-removed');
 	}
 } satisfies Actions;
