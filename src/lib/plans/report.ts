@@ -11,7 +11,7 @@ export interface PlanReportBand {
 	bandHz: number;
 	measuredBeforeS: number | null;
 	predictedS: number | null;
-	target: { lowerS: number; upperS: number } | null;
+	target: { targetS: number; lowerS: number; upperS: number } | null;
 	measuredAfterS: number | null;
 	differenceS: number | null;
 }
@@ -59,7 +59,7 @@ export function planReport(items: readonly PlanItem[], evaluation: PlanEvaluatio
 			bandHz: b.bandHz,
 			measuredBeforeS: b.measuredBeforeS,
 			predictedS: b.predictedS,
-			target: b.target ? { lowerS: b.target.lowerS, upperS: b.target.upperS } : null,
+			target: b.target ? { targetS: b.target.targetS, lowerS: b.target.lowerS, upperS: b.target.upperS } : null,
 			measuredAfterS: b.measuredAfterS,
 			differenceS: b.differenceS
 		})),

@@ -56,7 +56,7 @@ describe('the plan in plain words', () => {
 			expect(b.measuredBeforeS).toBe(before[i]);
 			expect(b.predictedS).toBe(e.bands[i].predictedS);
 			expect(b.predictedS as number).toBeLessThan(before[i]); // treatment only adds absorption here
-			expect(b.target).toEqual({ lowerS: e.bands[i].target!.lowerS, upperS: e.bands[i].target!.upperS });
+			expect(b.target).toEqual({ targetS: e.bands[i].target!.targetS, lowerS: e.bands[i].target!.lowerS, upperS: e.bands[i].target!.upperS });
 			expect(b.measuredAfterS).toBeNull();
 			expect(b.differenceS).toBeNull();
 		});
