@@ -1,5 +1,6 @@
-// Benchmark: server time of the comparison page and its API for a room with 2 visits × 12
-// positions (median and 95th percentile over 50 requests), and how long the browser takes to
+// Benchmark: server time of the comparison page and its API, the client report with the plan,
+// and the plan and build pages, for a room with 2 visits × 12 positions (median and 95th
+// percentile over 50 requests), and how long the browser takes to
 // draw the first chart of 12 overlaid responses. Runs on the throw-away test services.
 // Usage: npx tsx scripts/bench-pages.ts   (builds the app first if sources changed)
 import { rmSync } from 'node:fs';
@@ -9,6 +10,7 @@ import { chromium } from 'playwright-core';
 import { dataDir, migrate, profileEnv, startServices, stopServices } from './stack';
 import { buildIfStale, startWebServer, waitForHttp } from './processes';
 import { seedDemo } from './demo/seed';
+import { seedDemoPlan } from './demo/seed-plan';
 import { synthesiseResponse, TREATED, UNTREATED } from './demo/room-response';
 import { loadConfig } from '../src/lib/server/config';
 import { knexSettings } from '../src/lib/server/db';
@@ -51,7 +53,10 @@ try {
 	}
 	const s3 = createStorage();
 	while (await runNextJob(k, s3, { owner: 'bench' }));
-	const [comparisonId] = await k('comparisons').insert({ room_id: roomId, baseline_session_id: sessionIds[0], treated_session_id: sessionIds[1], title: 'Benchmark' });
+	const [comparisonId] = await k('comparisons').insert({ room_id: roomId, baseline_session_id: sessionIds[0], treated_session_id: sessionIds[1], title: 'Benchmark', published_at: new Date() });
+	// The demo's plan on this room: its prediction reads both visits of 12 positions.
+	const consultant = await k('users').where({ email: 'consultant@fenwick-hale.test' }).first('id');
+	await k.transaction((trx) => seedDemoPlan(trx, { roomId, consultantId: consultant.id, baselineSessionId: sessionIds[0], afterSessionId: sessionIds[1] }));
 
 	buildIfStale();
 	web = startWebServer(env, true);
@@ -64,7 +69,13 @@ try {
 	});
 	const cookie = signIn.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
 
-	for (const [label, path] of [['comparison page', `/comparisons/${comparisonId}`], ['comparison API', `/api/comparisons/${comparisonId}`]] as const) {
+	for (const [label, path] of [
+		['comparison page', `/comparisons/${comparisonId}`],
+		['comparison API', `/api/comparisons/${comparisonId}`],
+		['report with plan', `/reports/${comparisonId}`],
+		['plan page', `/rooms/${roomId}/plan`],
+		['build page', `/rooms/${roomId}/plan/build`]
+	] as const) {
 		const times: number[] = [];
 		for (let i = 0; i < REQUESTS + 3; i++) {
 			const t0 = performance.now();
