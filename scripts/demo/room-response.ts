@@ -35,7 +35,7 @@ export const TREATED: Condition = {
 	t60S: treatedT60S(),
 	reflection: { floor: 0.75, ceiling: 0.5, front: 0.7, back: 0.35, left: 0.3, right: 0.3 },
 	// The traps tame the modes, but below their tuning they still ring longer than the tail.
-	modeT60S: 0.8
+	modeT60S: 0.65
 };
 
 export function synthesiseResponse(room: RoomBox, source: Point3, mic: Point3, condition: Condition, seed: number, sampleRate = 48_000, lengthS = 1.8): Float64Array {

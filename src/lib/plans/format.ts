@@ -51,3 +51,9 @@ export function moneyText(amount: number, currency: string): string {
 export function hzText(hz: number): string {
 	return hz >= 1000 ? `${trimmed(hz / 1000, 1)} kHz` : `${Math.round(hz)} Hz`;
 }
+
+/** "+0.02", "−0.04", "0.00": signed by the value as shown, so a difference that rounds to nothing has no sign. */
+export function signedText(value: number, decimals: number): string {
+	const shown = Number(value.toFixed(decimals));
+	return `${shown > 0 ? '+' : shown < 0 ? '−' : ''}${Math.abs(shown).toFixed(decimals)}`;
+}
