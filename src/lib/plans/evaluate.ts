@@ -165,8 +165,20 @@ export function evaluatePlan(input: PlanInput): PlanEvaluation {
 	const calibrationKind: PlanEvaluation['calibration'] =
 		measuredCount === PLANNING_BANDS_HZ.length ? 'measured' : measuredCount > 0 ? 'partly measured' : 'assumed finishes only';
 
+	/** The answer without a prediction, once `problems` says why. */
+	const unworkable = (): PlanEvaluation => ({
+		volumeM3,
+		surfaceAreaM2: surfaceAreaTotal,
+		surfaces,
+		items,
+		bands: emptyBands(measuredBefore, measuredAfter, target),
+		calibration: calibrationKind,
+		warnings,
+		problems
+	});
+
 	if (problems.length > 0) {
-		return { volumeM3, surfaceAreaM2: surfaceAreaTotal, surfaces, items, bands: emptyBands(measuredBefore, measuredAfter, target), calibration: calibrationKind, warnings, problems };
+		return unworkable();
 	}
 
 	const treatment: TreatmentItem[] = plan.items.map((item, i) => ({
@@ -187,7 +199,7 @@ export function evaluatePlan(input: PlanInput): PlanEvaluation {
 		) as typeof byFormula;
 	} catch (e) {
 		problems.push((e as Error).message);
-		return { volumeM3, surfaceAreaM2: surfaceAreaTotal, surfaces, items, bands: emptyBands(measuredBefore, measuredAfter, target), calibration: calibrationKind, warnings, problems };
+		return unworkable();
 	}
 	for (const w of byFormula.sabine.calibration.warnings) warnings.push(w);
 

@@ -57,3 +57,8 @@ export function signedText(value: number, decimals: number): string {
 	const shown = Number(value.toFixed(decimals));
 	return `${shown > 0 ? '+' : shown < 0 ? '−' : ''}${Math.abs(shown).toFixed(decimals)}`;
 }
+
+/** A target's tolerance in seconds, "0.17–0.27", or "—" without a target. */
+export function targetRangeText(target: { lowerS: number; upperS: number } | null): string {
+	return target ? `${target.lowerS.toFixed(2)}–${target.upperS.toFixed(2)}` : '—';
+}

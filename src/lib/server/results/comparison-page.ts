@@ -25,8 +25,13 @@ function withoutPositionCurves(model: ComparisonModel): ComparisonModel {
 
 /** The room's plan for the report, when the consultant chose to show it and it has items. */
 async function reportPlanOf(k: Knex, scope: Scope, roomId: number, organizationId: number, model: ComparisonModel): Promise<PlanReport | null> {
+	// Most rooms have no shared plan: ask before working one through.
+	const shared = await k('treatment_plans as p')
+		.where({ 'p.room_id': roomId, 'p.include_in_report': true })
+		.whereExists((q) => q.select(k.raw('1')).from('treatment_items as i').whereRaw('i.plan_id = p.id'))
+		.first('p.id');
+	if (!shared) return null;
 	const view = await loadPlanView(k, roomId, organizationId, [model.baseline, model.treated]);
-	if (!view.plan.settings.includeInReport || view.plan.items.length === 0) return null;
 	return planReport(view.plan.items, view.evaluation, view.cost, view.plan.settings.currency, unitOfSystem(scope.user.unitSystem));
 }
 
