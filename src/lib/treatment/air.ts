@@ -1,6 +1,6 @@
 // Properties of air used throughout the treatment computations.
 
-/** Speed of sound used by default (m/s), the value of the worked examples in REFERENCES.md. */
+/** Speed of sound used by default (m/s): air at about 20 °C, the common handbook value (331.3·√(1 + 20/273.15) = 343.2; Kinsler et al., Fundamentals of Acoustics, from memory). */
 export const DEFAULT_SPEED_OF_SOUND = 343;
 
 /** Density of air at about 20 °C (kg/m³); common handbook value. */
