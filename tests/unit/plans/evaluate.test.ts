@@ -287,9 +287,9 @@ describe('predicted against measured after treatment', () => {
 	});
 });
 
-describe('target verdicts, ITU-R BS.1116-3 for a 100 m³ room (Tm = 0.250 s, REFERENCES.md)', () => {
+describe('target verdicts, ITU-R BS.1116-3 for a 100 m³ room (Tm = 0.250 s)', () => {
 	// 5 × 5 × 4 m = 100 m³. Tm = 0.25·(V/100)^(1/3) = 0.250 s; ±0.05 s over 200 Hz–4 kHz; upper
-	// +0.3 s at 63 Hz; lower −0.1 s at 8 kHz (REFERENCES.md; mask shape from memory).
+	// +0.3 s at 63 Hz; lower −0.1 s at 8 kHz (ITU-R BS.1116-3; formula and mask shape from memory).
 	const room = { lengthM: 5, widthM: 5, heightM: 4 };
 	const measured = [0.5, 0.6, 0.26, 0.28, 0.35, 0.18, 0.24, 0.16];
 	const e = evaluatePlan(input({ room, measuredBeforeS: measured, target: bs1116Target(100, PLANNING_BANDS_HZ) }));

@@ -73,7 +73,7 @@ describe('cut list CSV (RFC 4180)', () => {
 		const [header] = parseCsv(csv);
 		expect(header.slice(2, 8)).toEqual(['Length (mm)', 'Width (mm)', 'Thickness (mm)', 'Length (in)', 'Width (in)', 'Thickness (in)']);
 		const [r] = table(csv);
-		// 1200 mm = 47.244 in → 47 4/16; 600 mm = 23.622 in → 23 10/16; 18 mm = 0.709 in → 11/16 (REFERENCES: 25.4 mm/in).
+		// 1200 mm = 47.244 in → 47 4/16; 600 mm = 23.622 in → 23 10/16; 18 mm = 0.709 in → 11/16 (1 in = 25.4 mm exactly, the international inch of 1959).
 		expect([r['Length (in)'], r['Width (in)'], r['Thickness (in)']]).toEqual(['47 1/4', '23 5/8', '11/16']);
 		expect(r['Y on sheet (mm)']).toBe('603');
 		expect(r.Turned).toBe('no');

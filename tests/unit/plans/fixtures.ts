@@ -15,7 +15,7 @@ import {
 	type StoredPlan
 } from '../../../src/lib/plans/types';
 
-/** Speed of sound of the worked examples, m/s (REFERENCES.md). */
+/** Speed of sound, m/s: air at about 20 °C, the common handbook value (also the c of the python-acoustics Sabine/Eyring example). */
 export const C = 343;
 /** 24·ln 10: the 60 dB decay constant of the reverberation formulas (Kuttruff, Room Acoustics). */
 export const DECAY_60 = 24 * Math.LN10;
@@ -27,7 +27,7 @@ export function flatMaterial(id: string, alpha: number): Material {
 	return { id, name: `flat ${alpha}`, coefficients: [alpha, alpha, alpha, alpha, alpha, alpha], source: 'test', confidence: 'user entry' };
 }
 
-/** The default finish, with the Vorländer "hard surface" row of REFERENCES.md (125 … 4k). */
+/** The default finish: the "hard surface" row of Vorländer, Auralization (Springer 2008), annex (125 … 4k), as carried in pyroomacoustics' materials.json. */
 export const HARD_SURFACE: Material = {
 	id: 'hard-surface',
 	name: 'Hard surface',
@@ -73,7 +73,7 @@ export const POROUS: PorousParams = {
 /** 6 mm plywood over a 276 mm fibre-filled cavity (the planner's trap for 36–72 Hz). */
 export const MEMBRANE: MembraneParams = { kind: 'membrane', panelThicknessMm: 6, panelStockId: 'plywood', cavityDepthMm: 276, cavityFill: 'porous', frameThicknessMm: 18 };
 
-/** The REFERENCES.md QRD: N = 7, f0 = 500 Hz, 50 mm wells, 6 mm fins; 18 mm board. */
+/** A QRD worked from its design formulas (Schroeder, JASA 65:958, 1979; D'Antonio & Konnert, JAES 32:228, 1984): N = 7, f0 = 500 Hz, 50 mm wells, 6 mm fins; 18 mm board. */
 export const QRD7: DiffuserParams = {
 	kind: 'diffuser',
 	sequence: 'quadratic-residue',

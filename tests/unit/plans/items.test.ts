@@ -4,7 +4,7 @@ import { PLANNING_BANDS_HZ } from '../../../src/lib/treatment/bands';
 import { porousBandAbsorption, randomIncidenceAbsorption } from '../../../src/lib/treatment/porous';
 import { C, item, MEMBRANE, POROUS, QRD7 } from './fixtures';
 
-// Air of the membrane formula: ρ0 = 1.21 kg/m³, c0 = 343 m/s, γ = 1.4 (handbook values; REFERENCES.md for c).
+// Air of the membrane formula: ρ0 = 1.21 kg/m³, c0 = 343 m/s, γ = 1.4 (common handbook values for air at about 20 °C, from memory).
 const RHO0 = 1.21;
 const GAMMA = 1.4;
 
@@ -68,7 +68,7 @@ describe('panel trap: 6 mm plywood over a 276 mm fibre-filled cavity', () => {
 	});
 });
 
-describe('diffuser: QRD N = 7, f0 = 500 Hz, 50 mm wells, 6 mm fins (REFERENCES.md QRD example)', () => {
+describe('diffuser: QRD N = 7, f0 = 500 Hz, 50 mm wells, 6 mm fins (worked from the design formulas of Schroeder, JASA 65:958, 1979)', () => {
 	const a = itemAcoustics(item({ quantity: 3, widthMm: 0, heightMm: 1200, params: QRD7 }));
 	const design = a.diffuser!;
 
