@@ -16,7 +16,7 @@ const flat = (v: number) => PLANNING_BANDS_HZ.map(() => v);
 const sixBands = (v: number[]) => [null, ...v, null];
 
 describe('Everest & Pohlmann, Master Handbook of Acoustics, reverberation chapter, treated-room example', () => {
-	// Book (REFERENCES.md, checked in two editions): room 23.3 × 16 × 10 ft, T = 0.049·V/A
+	// The book's worked example (checked in two editions): room 23.3 × 16 × 10 ft, T = 0.049·V/A
 	// (imperial Sabine), untreated T 125…4k = 0.54 1.53 2.87 3.39 2.06 1.63 s, after adding
 	// 340 ft² of acoustic tile 0.49 0.85 0.56 0.54 0.54 0.55 s.
 	// What is checked against the book: the untreated absorption our calibration backs out equals

@@ -9,14 +9,14 @@ import {
 } from '../../../src/lib/treatment/diffuser';
 import { diffuserProfileSvg } from '../../../src/lib/treatment/diffuserSvg';
 
-describe('quadratic-residue worked example (REFERENCES.md; Schroeder JASA 65:958, 1979; D’Antonio & Konnert JAES 32:228, 1984)', () => {
+describe('quadratic-residue example worked from the design formulas (Schroeder JASA 65:958, 1979; D’Antonio & Konnert JAES 32:228, 1984)', () => {
 	const design = designDiffuser({ kind: 'quadratic-residue', prime: 7, designFrequencyHz: 500, wellWidthM: 0.05, finThicknessM: 0.01, speedOfSound: 343 });
 
 	it('sequence n² mod 7 = 0, 1, 4, 2, 2, 4, 1', () => {
 		expect(design.sequence).toEqual([0, 1, 4, 2, 2, 4, 1]);
 	});
 
-	it('depths s_n·λ0/(2N) = 0, 49, 196, 98, 98, 196, 49 mm (±0.5 mm: the reference rounds to whole mm)', () => {
+	it('depths s_n·λ0/(2N) = 0, 49, 196, 98, 98, 196, 49 mm (±0.5 mm: the expected depths are rounded to whole mm)', () => {
 		const expected = [0, 49, 196, 98, 98, 196, 49];
 		design.wellDepthsM.forEach((d, i) => expect(Math.abs(d * 1000 - expected[i])).toBeLessThanOrEqual(0.5));
 	});
@@ -47,7 +47,7 @@ describe('quadratic-residue worked example (REFERENCES.md; Schroeder JASA 65:958
 	});
 });
 
-describe('primitive-root sequence (Cox & D’Antonio, Acoustic Absorbers and Diffusers; REFERENCES.md)', () => {
+describe('primitive-root sequence (Cox & D’Antonio, Acoustic Absorbers and Diffusers, from memory; 3ⁿ mod 7 worked by hand)', () => {
 	it('N = 7, g = 3 → 3, 2, 6, 4, 5, 1', () => {
 		expect(primitiveRootSequence(7, 3)).toEqual({ primitiveRoot: 3, sequence: [3, 2, 6, 4, 5, 1] });
 	});

@@ -5,7 +5,7 @@ import { roomPatches, roomSurfaceAreaM2, roomVolumeM3, surfaceAreaM2, type Surfa
 
 describe('material table', () => {
 	it.each([
-		// REFERENCES.md, Vorländer, Auralization (2008), annex, as carried in pyroomacoustics materials.json.
+		// Vorländer, Auralization (Springer 2008), annex, as carried in pyroomacoustics materials.json.
 		['hard-surface', [0.02, 0.02, 0.03, 0.03, 0.04, 0.05]],
 		['plasterboard', [0.15, 0.1, 0.06, 0.04, 0.04, 0.05]],
 		['glass-window', [0.1, 0.05, 0.04, 0.03, 0.03, 0.03]],

@@ -19,7 +19,7 @@ const SIGMA = 10_000; // 10 kPa·s/m²
 const D = 0.05;
 
 describe('normal-incidence absorption of a 50 mm layer on a rigid wall', () => {
-	// REFERENCES.md "Diffusers and porous absorbers": values computed from the published models
+	// Values computed from the published models
 	// (Delany & Bazley, Appl. Acoust. 3:105, 1970; Miki, J. Acoust. Soc. Jpn (E) 11:19, 1990) with
 	// Zs = −j Zc cot(kd); ±0.005 because the table is rounded to three decimals.
 	const table: [PorousModel, number[]][] = [

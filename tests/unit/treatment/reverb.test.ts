@@ -22,7 +22,7 @@ const WORKED = {
 };
 
 describe('worked input S = [240, 600, 500] m², α = [0.10, 0.25, 0.45], V = 3000 m³, c = 343 m/s', () => {
-	// REFERENCES.md: Sabine 1.2114 s and Eyring 1.0204 s (python-acoustics test suite, tests/test_room.py),
+	// Sabine 1.2114 s and Eyring 1.0204 s (python-acoustics test suite, tests/test_room.py),
 	// Millington 0.9729 s (computed from the published formula; Kuttruff, Room Acoustics).
 	// Tolerance 1e-3 s: the reference values carry four decimals.
 	it.each([
@@ -33,7 +33,7 @@ describe('worked input S = [240, 600, 500] m², α = [0.10, 0.25, 0.45], V = 300
 		expect(Math.abs(formula(WORKED) - expected)).toBeLessThan(1e-3);
 	});
 
-	it('24·ln10/343 = 0.16111 (REFERENCES.md: the 0.161 of the handbooks)', () => {
+	it('24·ln10/343 = 0.16111 (the Sabine constant 0.161 of the handbooks, e.g. Kuttruff, Room Acoustics, reverberation chapter)', () => {
 		expect(timeFromAbsorption(1, 1, 0, 343)).toBeCloseTo(0.16111, 5);
 		expect(absorptionForTime(3000, 1.2114, 343)).toBeCloseTo(24 + 150 + 225, 0);
 	});
