@@ -64,7 +64,7 @@ describe('compareSessions: positions matched by label', () => {
 });
 
 describe('compareSessions: verdicts against ITU-R BS.1116-3 for V = 72.8 m³', () => {
-	// Tm = 0.25·(V/100 m³)^(1/3) s, tolerance ±0.05 s from 200 Hz to 4 kHz (ITU-R BS.1116-3, via REFERENCES.md; formula "M high").
+	// Tm = 0.25·(V/100 m³)^(1/3) s, tolerance ±0.05 s from 200 Hz to 4 kHz (ITU-R BS.1116-3; formula and tolerance from memory, the formula with high confidence).
 	const tm = 0.25 * Math.cbrt(72.8 / 100); // 0.2247 s
 	const lower = tm - 0.05;
 	const upper = tm + 0.05;

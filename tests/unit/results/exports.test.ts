@@ -126,7 +126,7 @@ describe('sessionAverageCsv', () => {
 });
 
 describe('comparisonCsv and comparisonJson', () => {
-	// V = 72.8 m³ listening room → BS.1116-3 target Tm = 0.25·(V/100)^(1/3) s ± 0.05 s at 500 Hz (ITU-R BS.1116-3 via REFERENCES.md).
+	// V = 72.8 m³ listening room → BS.1116-3 target Tm = 0.25·(V/100)^(1/3) s ± 0.05 s at 500 Hz (ITU-R BS.1116-3; formula and tolerance from memory).
 	const tm = 0.25 * Math.cbrt(0.728);
 	const baseline = makeSession([{ label: 'P1', bands: [{ centerHz: 500, t30S: 0.6, edtS: 0.5, c50Db: 0, c80Db: 2 }, { centerHz: 1000, t30S: null, t20S: 0.4 }] }], { conditionLabel: 'untreated, "as found"' });
 	const treated = makeSession([{ label: 'P1', bands: [{ centerHz: 500, t30S: 0.24, edtS: 0.25, c50Db: 4, c80Db: 7 }, { centerHz: 1000, t30S: 0.2, t20S: 0.21 }] }], { sessionId: 2, conditionLabel: 'panels' });

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { formatCount, formatDecibels, formatFrequency, formatPercent, formatSeconds, joinList } from '../../../src/lib/results/format';
 
 describe('formatFrequency: band centres as ISO 266 writes them', () => {
-	// Nominal frequencies of ISO 266 (REFERENCES.md list), in Hz below 1 kHz and kHz from there.
+	// Nominal frequencies of ISO 266:1997 (preferred frequencies), in Hz below 1 kHz and kHz from there.
 	it.each([
 		[31.5, '31.5 Hz'],
 		[63, '63 Hz'],
