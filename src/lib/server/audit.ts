@@ -1,22 +1,37 @@
 import type { Knex } from 'knex';
 
-export interface AuditEvent {
+/** Who did it: a signed-in user acting in an organization (a `Scope` fits), or a user alone. */
+export interface Actor {
 	organizationId: number | null;
-	userId: number | null;
-	action: string;
-	entityType: string;
-	entityId: number | null;
-	details?: Record<string, unknown>;
+	user: { id: number } | null;
 }
 
-/** Append to the audit log, inside the caller's transaction so it records what really happened. */
-export async function recordAudit(k: Knex, e: AuditEvent): Promise<void> {
+/**
+ * Append to the audit log, inside the caller's transaction so it records what really happened:
+ * `await audit(trx, scope, 'room.updated', 'room', roomId)`.
+ */
+export async function audit(
+	k: Knex,
+	actor: Actor,
+	action: string,
+	entityType: string,
+	entityId: number | null,
+	details?: Record<string, unknown>
+): Promise<void> {
 	await k('audit_events').insert({
-		organization_id: e.organizationId,
-		user_id: e.userId,
-		action: e.action,
-		entity_type: e.entityType,
-		entity_id: e.entityId,
-		details: e.details ? JSON.stringify(e.details) : null
+		organization_id: actor.organizationId,
+		user_id: actor.user?.id ?? null,
+		action,
+		entity_type: entityType,
+		entity_id: entityId,
+		details: details ? JSON.stringify(details) : null
 	});
+}
+
+/** @deprecated the old spelled-out form; use `audit()`. Kept only while routes move to services. */
+export async function recordAudit(
+	k: Knex,
+	e: { organizationId: number | null; userId: number | null; action: string; entityType: string; entityId: number | null; details?: Record<string, unknown> }
+): Promise<void> {
+	await audit(k, { organizationId: e.organizationId, user: e.userId === null ? null : { id: e.userId } }, e.action, e.entityType, e.entityId, e.details);
 }

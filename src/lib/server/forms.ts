@@ -1,13 +1,12 @@
+// Form actions: parse with zod, run the service, and map a refused change to `fail(status)`
+// carrying the form's id, its field errors and the values to show again.
 import { fail, type ActionFailure } from '@sveltejs/kit';
 import type { z } from 'zod';
+import { FORM_ID_FIELD, type FieldErrors, type FormFailure } from '../forms';
+import { Problem } from './problem';
+import { problemFromDbError } from './db-errors';
 
-export type FieldErrors = Record<string, string>;
-
-export interface FormFailure {
-	values: Record<string, string>;
-	errors: FieldErrors;
-	message?: string;
-}
+export type { FieldErrors, FormFailure };
 
 const SECRET_FIELDS = /password|confirm|token/i;
 
@@ -16,6 +15,11 @@ function echo(formData: FormData): Record<string, string> {
 	const values: Record<string, string> = {};
 	for (const [k, v] of formData) if (typeof v === 'string' && !SECRET_FIELDS.test(k)) values[k] = v;
 	return values;
+}
+
+function formIdOf(formData: FormData): string | null {
+	const v = formData.get(FORM_ID_FIELD);
+	return typeof v === 'string' && v !== '' ? v : null;
 }
 
 export function fieldErrors(error: z.ZodError): FieldErrors {
@@ -27,6 +31,10 @@ export function fieldErrors(error: z.ZodError): FieldErrors {
 	return errors;
 }
 
+export function formFail(status: number, formData: FormData, message: string | undefined, errors: FieldErrors = {}): ActionFailure<FormFailure> {
+	return fail(status, { formId: formIdOf(formData), values: echo(formData), errors, message });
+}
+
 /**
  * Parse a form with a zod schema: the data, or a `fail(400)` carrying field errors and the
  * echoed values, ready to return from an action.
@@ -35,12 +43,37 @@ export function parseForm<S extends z.ZodType>(
 	schema: S,
 	formData: FormData
 ): { ok: true; data: z.infer<S> } | { ok: false; failure: ActionFailure<FormFailure> } {
-	const raw = Object.fromEntries([...formData].filter(([, v]) => typeof v === 'string'));
+	const raw = Object.fromEntries([...formData].filter(([k, v]) => typeof v === 'string' && k !== FORM_ID_FIELD));
 	const parsed = schema.safeParse(raw);
 	if (parsed.success) return { ok: true, data: parsed.data };
-	return { ok: false, failure: fail(400, { values: echo(formData), errors: fieldErrors(parsed.error) }) };
+	return { ok: false, failure: formFail(400, formData, undefined, fieldErrors(parsed.error)) };
 }
 
-export function formFail(status: number, formData: FormData, message: string, errors: FieldErrors = {}) {
-	return fail(status, { values: echo(formData), errors, message });
+/** A refused change as the form's failure; anything that is not a problem is thrown on. */
+export function problemToFailure(e: unknown, formData: FormData): ActionFailure<FormFailure> {
+	const p = e instanceof Problem ? e : problemFromDbError(e);
+	if (!p) throw e;
+	return formFail(p.status, formData, p.message, p.field ? { [p.field]: p.message } : {});
+}
+
+/**
+ * The body of a form action after `authorize()`: read and parse the form, run the service with
+ * the parsed input, and answer with its result or the refusal. A `redirect()` inside `work`
+ * passes through.
+ *
+ *   return formAction(request, roomSchema, (input) => rooms.update(scope, roomId, input));
+ */
+export async function formAction<S extends z.ZodType, R>(
+	request: Request,
+	schema: S,
+	work: (input: z.infer<S>, formData: FormData) => Promise<R>
+): Promise<R | ActionFailure<FormFailure>> {
+	const formData = await request.formData();
+	const parsed = parseForm(schema, formData);
+	if (!parsed.ok) return parsed.failure;
+	try {
+		return await work(parsed.data, formData);
+	} catch (e) {
+		return problemToFailure(e, formData);
+	}
 }

@@ -5,23 +5,15 @@ import { config } from './config';
 import { enqueueMail } from './mail';
 import { reportPublishedMail } from './messages';
 import { transaction } from './transaction';
+import { Problem } from './problem';
 import { createComparison, createProblemBand } from './queries/reviews';
 import type { Scope } from './auth/access';
 
-export class ReviewProblem extends Error {
-	constructor(
-		readonly status: number,
-		message: string,
-		readonly field?: string
-	) {
-		super(message);
-	}
-}
 
 export async function startComparison(k: Knex, scope: Scope, roomId: number, input: { baselineSessionId: number; treatedSessionId: number; title: string }): Promise<number> {
 	const sessions = await k('sessions').whereIn('id', [input.baselineSessionId, input.treatedSessionId]).select('id', 'room_id');
 	if (sessions.length !== 2 || sessions.some((s) => s.room_id !== roomId)) {
-		throw new ReviewProblem(400, 'Both visits must be of this room: a comparison across rooms would compare different spaces.', 'treatedSessionId');
+		throw new Problem(400, 'Both visits must be of this room: a comparison across rooms would compare different spaces.', { field: 'treatedSessionId' });
 	}
 	return transaction(async (trx) => {
 		const id = await createComparison(trx, { roomId, ...input, createdBy: scope.user.id });
@@ -38,7 +30,7 @@ export async function addProblemBand(
 	return transaction(async (trx) => {
 		if (input.comparisonId !== null) {
 			const c = await trx('comparisons').where({ id: input.comparisonId, room_id: roomId }).first('id');
-			if (!c) throw new ReviewProblem(400, 'That comparison is of another room.', 'comparisonId');
+			if (!c) throw new Problem(400, 'That comparison is of another room.', { field: 'comparisonId' });
 		}
 		const id = await createProblemBand(trx, roomId, { ...input, authorId: scope.user.id });
 		await recordAudit(trx, { organizationId: scope.organizationId, userId: scope.user.id, action: 'problem_band.created', entityType: 'problem_band', entityId: id, details: { fLoHz: input.fLoHz, fHiHz: input.fHiHz, severity: input.severity } });

@@ -11,14 +11,9 @@ import {
 import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
 import { randomUUID } from 'node:crypto';
 import { config, type AppConfig } from './config';
+import { unavailable } from './problem';
 
-export class StorageUnavailableError extends Error {
-	constructor(cause: unknown) {
-		super('Object storage is not reachable right now. Try again in a moment.');
-		this.name = 'StorageUnavailableError';
-		this.cause = cause;
-	}
-}
+const STORAGE_DOWN = 'Object storage is not reachable right now. Try again in a moment.';
 
 function client(c: AppConfig, endpoint: string): S3Client {
 	return new S3Client({
@@ -35,7 +30,7 @@ function client(c: AppConfig, endpoint: string): S3Client {
 
 export interface Storage {
 	bucket: string;
-	/** Throws StorageUnavailableError when the store cannot be reached. */
+	/** Throws a 503 problem when the store cannot be reached. */
 	ping(): Promise<void>;
 	presignPut(key: string, contentType: string, contentLength: number, expiresInS?: number): Promise<string>;
 	presignGet(key: string, downloadName: string, expiresInS?: number): Promise<string>;
@@ -50,13 +45,13 @@ const isNotFound = (e: unknown) => {
 	return x?.name === 'NotFound' || x?.name === 'NoSuchKey' || x?.$metadata?.httpStatusCode === 404;
 };
 
-/** Network-level failures become StorageUnavailableError; S3 answers pass through. */
+/** Network-level failures become a 503 problem; S3 answers pass through. */
 async function guard<T>(work: () => Promise<T>): Promise<T> {
 	try {
 		return await work();
 	} catch (e) {
 		if ((e as { $metadata?: { httpStatusCode?: number } })?.$metadata?.httpStatusCode) throw e;
-		throw new StorageUnavailableError(e);
+		throw unavailable(STORAGE_DOWN, e);
 	}
 }
 

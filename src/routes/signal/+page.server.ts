@@ -1,8 +1,7 @@
 import { error, redirect } from '@sveltejs/kit';
 import { authorize, membershipsAllowing } from '$lib/server/auth/access';
 import { db } from '$lib/server/db';
-import { formFail, parseForm } from '$lib/server/forms';
-import { StorageUnavailableError } from '$lib/server/storage';
+import { parseForm, problemToFailure } from '$lib/server/forms';
 import { createSweep, listSweeps } from '$lib/server/sweeps';
 import { sweepDefinitionSchema } from '$lib/schemas/captures';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
@@ -29,8 +28,7 @@ export const actions = {
 		try {
 			await createSweep(scope, parsed.data);
 		} catch (e) {
-			if (e instanceof StorageUnavailableError) return formFail(503, form, e.message);
-			throw e;
+			return problemToFailure(e, form);
 		}
 		redirect(303, '/signal?created=1');
 	}

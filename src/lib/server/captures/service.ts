@@ -8,26 +8,17 @@ import { recordAudit } from '../audit';
 import { enqueue } from '../jobs/queue';
 import { newObjectKey, storage, type Storage } from '../storage';
 import { transaction } from '../transaction';
+import { Problem } from '../problem';
 import { findDuplicate, getCapture, type CaptureRow } from '../queries/captures';
 import { HEADER_PROBE_BYTES, inspectWavHeader, WavHeaderError, type WavHeader } from './wav-header';
 import type { CreateCaptureInput } from '../../schemas/captures';
 import type { Scope } from '../auth/access';
 
-export class CaptureProblem extends Error {
-	constructor(
-		readonly status: number,
-		message: string,
-		readonly details: Record<string, unknown> = {}
-	) {
-		super(message);
-		this.name = 'CaptureProblem';
-	}
-}
 
 async function resolvePosition(trx: Knex.Transaction, sessionId: number, input: { positionId?: number; newPositionLabel?: string }): Promise<number> {
 	if (input.positionId !== undefined) {
 		const p = await trx('positions').where({ id: input.positionId, session_id: sessionId }).first('id');
-		if (!p) throw new CaptureProblem(400, 'That position belongs to another visit.', { field: 'positionId' });
+		if (!p) throw new Problem(400, 'That position belongs to another visit.', { field: 'positionId' });
 		return p.id;
 	}
 	const label = input.newPositionLabel!;
@@ -51,13 +42,14 @@ export async function createCapture(scope: Scope, sessionId: number, input: Crea
 	const k = db();
 	const duplicate = await findDuplicate(k, sessionId, input.sha256);
 	if (duplicate) {
-		throw new CaptureProblem(409, `This file is already in the visit as ${duplicate.filename} (position ${duplicate.positionLabel}).`, {
-			duplicateOf: duplicate.id
+		throw new Problem(409, `This file is already in the visit as ${duplicate.filename} (position ${duplicate.positionLabel}).`, {
+			code: 'duplicate',
+			details: { duplicateOf: duplicate.id }
 		});
 	}
 	if (input.sweepDefinitionId !== undefined) {
 		const sweep = await k('sweep_definitions').where({ id: input.sweepDefinitionId, organization_id: scope.organizationId }).first('id');
-		if (!sweep) throw new CaptureProblem(400, 'Pick a test signal of this organization.', { field: 'sweepDefinitionId' });
+		if (!sweep) throw new Problem(400, 'Pick a test signal of this organization.', { field: 'sweepDefinitionId' });
 	}
 	// Presigning works offline, so ask the store first: if it is down, say so now and write nothing.
 	await s.ping();
@@ -98,21 +90,21 @@ export async function createCapture(scope: Scope, sessionId: number, input: Crea
 /** Check an uploaded object: present, of the declared size, and a readable WAV header. */
 async function checkObject(s: Storage, key: string, declaredSize: number | null, channel: number | null): Promise<WavHeader> {
 	const head = await s.head(key);
-	if (!head) throw new CaptureProblem(409, 'The file has not arrived in storage yet. Upload it, then confirm.');
+	if (!head) throw new Problem(409, 'The file has not arrived in storage yet. Upload it, then confirm.');
 	if (declaredSize !== null && head.size !== declaredSize) {
-		throw new CaptureProblem(422, `The stored file is ${head.size} bytes but ${declaredSize} were announced: upload it again.`);
+		throw new Problem(422, `The stored file is ${head.size} bytes but ${declaredSize} were announced: upload it again.`);
 	}
-	if (head.size > config().UPLOAD_MAX_BYTES) throw new CaptureProblem(413, 'The file is larger than the upload limit.');
+	if (head.size > config().UPLOAD_MAX_BYTES) throw new Problem(413, 'The file is larger than the upload limit.');
 	const bytes = await s.getBytes(key, { start: 0, end: Math.min(head.size, HEADER_PROBE_BYTES) - 1 });
 	let header: WavHeader;
 	try {
 		header = inspectWavHeader(bytes, head.size, { maxDurationS: config().ANALYSIS_MAX_DURATION_S });
 	} catch (e) {
-		if (e instanceof WavHeaderError) throw new CaptureProblem(422, e.message);
+		if (e instanceof WavHeaderError) throw new Problem(422, e.message);
 		throw e;
 	}
 	if (channel !== null && channel >= header.channels) {
-		throw new CaptureProblem(422, `Channel ${channel} was chosen but the file has ${header.channels} channel${header.channels === 1 ? '' : 's'} (0–${header.channels - 1}).`);
+		throw new Problem(422, `Channel ${channel} was chosen but the file has ${header.channels} channel${header.channels === 1 ? '' : 's'} (0–${header.channels - 1}).`);
 	}
 	return header;
 }
@@ -124,14 +116,14 @@ async function checkObject(s: Storage, key: string, declaredSize: number | null,
 export async function confirmUpload(scope: Scope, captureId: number, s: Storage = storage()): Promise<CaptureRow> {
 	const k = db();
 	const capture = await getCapture(k, captureId);
-	if (!capture) throw new CaptureProblem(404, 'Not found.');
+	if (!capture) throw new Problem(404, 'Not found.');
 	if (capture.status !== 'awaiting_upload') return capture; // idempotent: already confirmed
 	let header: WavHeader;
 	try {
 		header = await checkObject(s, capture.objectKey, capture.sizeBytes, capture.channel);
 		if (capture.referenceObjectKey) await checkObject(s, capture.referenceObjectKey, null, null);
 	} catch (e) {
-		if (e instanceof CaptureProblem && e.status !== 409) await removeCapture(scope, capture, s, 'capture.refused', { reason: e.message });
+		if (e instanceof Problem && e.status !== 409) await removeCapture(scope, capture, s, 'capture.refused', { reason: e.message });
 		throw e;
 	}
 	await transaction(async (trx) => {

@@ -6,7 +6,7 @@ import type { Knex } from 'knex';
 import { recordAudit } from '../audit';
 import { isDuplicateKey, isStillReferenced } from '../db-errors';
 import { transaction } from '../transaction';
-import { ReviewProblem } from '../reviews';
+import { Problem } from '../problem';
 import type { Scope } from '../auth/access';
 import { getRoom } from '../queries/rooms';
 import {
@@ -31,7 +31,6 @@ import type { PlanItem, PlanOpening, PlanSettings, StockSheetRow, StoredPlan } f
 import type { SurfaceId } from '../../treatment/surfaces';
 import { TABLE_BANDS_HZ } from '../../treatment/bands';
 
-export { ReviewProblem as PlanProblem };
 
 type ItemInput = Omit<PlanItem, 'id'>;
 
@@ -46,7 +45,7 @@ async function resolveMaterialKey(k: Knex, organizationId: number, key: string, 
 		const m = await getCustomMaterial(k, parsed.customId);
 		if (m && m.organizationId === organizationId) return parsed;
 	} else if (parsed) return parsed;
-	throw new ReviewProblem(400, 'Pick a material from the list.', field);
+	throw new Problem(400, 'Pick a material from the list.', { field });
 }
 
 /** Refuses the change when the plan it leads to cannot be worked out; the reason goes to the user. */
@@ -61,7 +60,7 @@ async function assertWorkable(trx: Knex, scope: Scope, roomId: number, plan: Sto
 		measuredAfterS: null,
 		target: []
 	});
-	if (evaluation.problems.length > 0) throw new ReviewProblem(400, capitalise(evaluation.problems[0]), field);
+	if (evaluation.problems.length > 0) throw new Problem(400, capitalise(evaluation.problems[0]), { field });
 }
 
 const capitalise = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
@@ -70,7 +69,7 @@ async function checkSessionsOfRoom(trx: Knex, roomId: number, ids: (number | nul
 	const wanted = ids.filter((id): id is number => id !== null);
 	if (wanted.length === 0) return;
 	const found = await trx('sessions').whereIn('id', wanted).where({ room_id: roomId }).select('id');
-	if (found.length !== new Set(wanted).size) throw new ReviewProblem(400, 'Pick visits of this room.', 'baselineSessionId');
+	if (found.length !== new Set(wanted).size) throw new Problem(400, 'Pick visits of this room.', { field: 'baselineSessionId' });
 }
 
 /** Saves the settings a form carries; the others keep their stored values. */
@@ -79,7 +78,7 @@ export async function savePlanSettings(scope: Scope, roomId: number, changes: Pa
 		const planId = await ensurePlan(trx, roomId, scope.user.id);
 		const settings = { ...(await loadStoredPlan(trx, roomId)).settings, ...changes };
 		if (settings.baselineSessionId !== null && settings.baselineSessionId === settings.afterSessionId) {
-			throw new ReviewProblem(400, 'The visit after treatment must be another visit than the one before.', 'afterSessionId');
+			throw new Problem(400, 'The visit after treatment must be another visit than the one before.', { field: 'afterSessionId' });
 		}
 		await checkSessionsOfRoom(trx, roomId, [settings.baselineSessionId, settings.afterSessionId]);
 		await updatePlanSettings(trx, planId, settings, scope.user.id);
@@ -112,7 +111,7 @@ export async function removeOpening(scope: Scope, roomId: number, openingId: num
 	await transaction(async (trx) => {
 		const planId = await ensurePlan(trx, roomId, scope.user.id);
 		const removed = await trx('room_openings').where({ id: openingId, room_id: roomId }).del();
-		if (removed === 0) throw new ReviewProblem(404, 'No such opening in this room.');
+		if (removed === 0) throw new Problem(404, 'No such opening in this room.');
 		await audit(trx, scope, 'plan.opening_removed', 'treatment_plan', planId, { openingId });
 	});
 }
@@ -125,7 +124,7 @@ function normalisedItem(item: ItemInput): ItemInput {
 async function checkProblemBand(trx: Knex, roomId: number, bandId: number | null): Promise<void> {
 	if (bandId === null) return;
 	const band = await trx('problem_bands').where({ id: bandId, room_id: roomId }).first('id');
-	if (!band) throw new ReviewProblem(400, 'That problem band is of another room.', 'problemBandId');
+	if (!band) throw new Problem(400, 'That problem band is of another room.', { field: 'problemBandId' });
 }
 
 /** The item must be buildable as sized (a frame wider than the panel is not). */
@@ -133,7 +132,7 @@ function checkBuildable(item: ItemInput): void {
 	try {
 		itemBuild({ ...item, id: 0 });
 	} catch (e) {
-		throw new ReviewProblem(400, `This item cannot be built as sized: ${(e as Error).message}.`, 'widthMm');
+		throw new Problem(400, `This item cannot be built as sized: ${(e as Error).message}.`, { field: 'widthMm' });
 	}
 }
 
@@ -153,7 +152,7 @@ export async function addItem(scope: Scope, roomId: number, input: ItemInput): P
 
 async function itemOfRoom(trx: Knex, roomId: number, itemId: number): Promise<number> {
 	const row = await trx('treatment_items as i').join('treatment_plans as p', 'p.id', 'i.plan_id').where({ 'i.id': itemId, 'p.room_id': roomId }).first('p.id as planId');
-	if (!row) throw new ReviewProblem(404, 'No such item in this plan.');
+	if (!row) throw new Problem(404, 'No such item in this plan.');
 	return row.planId;
 }
 
@@ -188,7 +187,7 @@ export async function addStock(scope: Scope, roomId: number, stock: Omit<StockSh
 			await audit(trx, scope, 'plan.stock_added', 'treatment_plan', planId, { label: stock.label });
 			return id;
 		} catch (e) {
-			if (isDuplicateKey(e)) throw new ReviewProblem(409, `A sheet called "${stock.label}" is already on the list.`, 'label');
+			if (isDuplicateKey(e)) throw new Problem(409, `A sheet called "${stock.label}" is already on the list.`, { field: 'label' });
 			throw e;
 		}
 	});
@@ -198,20 +197,20 @@ export async function removeStock(scope: Scope, roomId: number, stockId: number)
 	await transaction(async (trx) => {
 		const planId = await ensurePlan(trx, roomId, scope.user.id);
 		const removed = await trx('stock_sheets').where({ id: stockId, plan_id: planId }).del();
-		if (removed === 0) throw new ReviewProblem(404, 'No such sheet on this plan.');
+		if (removed === 0) throw new Problem(404, 'No such sheet on this plan.');
 		await audit(trx, scope, 'plan.stock_removed', 'treatment_plan', planId, { stockId });
 	});
 }
 
 export async function addCustomMaterial(scope: Scope, m: { name: string; source: string; coefficients: number[] }): Promise<number> {
-	if (m.coefficients.length !== TABLE_BANDS_HZ.length) throw new ReviewProblem(400, `Give ${TABLE_BANDS_HZ.length} coefficients.`);
+	if (m.coefficients.length !== TABLE_BANDS_HZ.length) throw new Problem(400, `Give ${TABLE_BANDS_HZ.length} coefficients.`);
 	return transaction(async (trx) => {
 		try {
 			const id = await createCustomMaterial(trx, scope.organizationId, m, scope.user.id);
 			await audit(trx, scope, 'material.created', 'custom_material', id, { name: m.name });
 			return id;
 		} catch (e) {
-			if (isDuplicateKey(e)) throw new ReviewProblem(409, `The practice already has a material called "${m.name}".`, 'name');
+			if (isDuplicateKey(e)) throw new Problem(409, `The practice already has a material called "${m.name}".`, { field: 'name' });
 			throw e;
 		}
 	});
@@ -220,11 +219,11 @@ export async function addCustomMaterial(scope: Scope, m: { name: string; source:
 export async function removeCustomMaterial(scope: Scope, materialId: number): Promise<void> {
 	await transaction(async (trx) => {
 		const m = await getCustomMaterial(trx, materialId);
-		if (!m || m.organizationId !== scope.organizationId) throw new ReviewProblem(404, 'No such material.');
+		if (!m || m.organizationId !== scope.organizationId) throw new Problem(404, 'No such material.');
 		try {
 			await trx('custom_materials').where({ id: materialId }).del();
 		} catch (e) {
-			if (isStillReferenced(e)) throw new ReviewProblem(409, 'This material is the finish of a surface or opening; give those another finish first.');
+			if (isStillReferenced(e)) throw new Problem(409, 'This material is the finish of a surface or opening; give those another finish first.');
 			throw e;
 		}
 		await audit(trx, scope, 'material.deleted', 'custom_material', materialId);

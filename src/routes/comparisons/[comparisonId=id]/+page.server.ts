@@ -1,10 +1,10 @@
 import { redirect } from '@sveltejs/kit';
 import { authorize } from '$lib/server/auth/access';
 import { db } from '$lib/server/db';
-import { formFail, parseForm } from '$lib/server/forms';
+import { formFail, parseForm, problemToFailure } from '$lib/server/forms';
 import { getComparison } from '$lib/server/queries/reviews';
 import { loadComparisonPage } from '$lib/server/results/comparison-page';
-import { addProblemBand, publishReport, ReviewProblem, saveAdvice } from '$lib/server/reviews';
+import { addProblemBand, publishReport, saveAdvice } from '$lib/server/reviews';
 import { adviceSchema, problemBandSchema } from '$lib/schemas/reviews';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -26,8 +26,7 @@ export const actions = {
 		try {
 			await addProblemBand(scope, comparison.roomId, parsed.data);
 		} catch (e) {
-			if (e instanceof ReviewProblem) return formFail(e.status, form, e.message);
-			throw e;
+			return problemToFailure(e, form);
 		}
 		return { bandAdded: true };
 	},

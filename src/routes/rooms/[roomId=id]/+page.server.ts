@@ -10,9 +10,9 @@ import { transaction } from '$lib/server/transaction';
 import { roomSchema, sessionSchema } from '$lib/schemas/projects';
 import { roleAllows } from '$lib/roles';
 import { listComparisons, listProblemBands, getProblemBand } from '$lib/server/queries/reviews';
-import { addProblemBand, ReviewProblem, removeProblemBand, setProblemBandStatus, startComparison } from '$lib/server/reviews';
+import { addProblemBand, removeProblemBand, setProblemBandStatus, startComparison } from '$lib/server/reviews';
 import { comparisonSchema, problemBandSchema, problemBandStatusSchema } from '$lib/schemas/reviews';
-import { formFail } from '$lib/server/forms';
+import { formFail, problemToFailure } from '$lib/server/forms';
 import { z } from 'zod';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -79,8 +79,7 @@ export const actions = {
 			const id = await startComparison(db(), scope, roomId, parsed.data);
 			redirect(303, `/comparisons/${id}`);
 		} catch (e) {
-			if (e instanceof ReviewProblem) return formFail(e.status, form, e.message, e.field ? { [e.field]: e.message } : {});
-			throw e;
+			return problemToFailure(e, form);
 		}
 	},
 
@@ -93,8 +92,7 @@ export const actions = {
 		try {
 			await addProblemBand(scope, roomId, parsed.data);
 		} catch (e) {
-			if (e instanceof ReviewProblem) return formFail(e.status, form, e.message, e.field ? { [e.field]: e.message } : {});
-			throw e;
+			return problemToFailure(e, form);
 		}
 		return { bandAdded: true };
 	},

@@ -1,13 +1,13 @@
 import { error, redirect } from '@sveltejs/kit';
 import { authorize } from '$lib/server/auth/access';
 import { db } from '$lib/server/db';
-import { formFail, parseForm } from '$lib/server/forms';
+import { formFail, parseForm, problemToFailure } from '$lib/server/forms';
 import { getRoom } from '$lib/server/queries/rooms';
 import { getSession } from '$lib/server/queries/sessions';
 import { checkPositionInRoom, createPosition, listPositions } from '$lib/server/queries/positions';
 import { getProject } from '$lib/server/queries/projects';
 import { recordAudit } from '$lib/server/audit';
-import { mapDuplicate, ConflictError } from '$lib/server/db-errors';
+import { mapDbErrors } from '$lib/server/db-errors';
 import { transaction } from '$lib/server/transaction';
 import { positionSchema } from '$lib/schemas/projects';
 import { roleAllows } from '$lib/roles';
@@ -58,12 +58,11 @@ export const actions = {
 		if (Object.keys(placeErrors).length) return formFail(400, form, 'Check the coordinates.', placeErrors);
 		try {
 			await transaction(async (trx) => {
-				const id = await mapDuplicate(createPosition(trx, sessionId, parsed.data), 'This visit already has a position with that label.');
+				const id = await mapDbErrors(createPosition(trx, sessionId, parsed.data), { duplicate: 'This visit already has a position with that label.', field: 'label' });
 				await recordAudit(trx, { organizationId: scope.organizationId, userId: scope.user.id, action: 'position.created', entityType: 'position', entityId: id });
 			});
 		} catch (e) {
-			if (e instanceof ConflictError) return formFail(409, form, e.message, { label: e.message });
-			throw e;
+			return problemToFailure(e, form);
 		}
 		redirect(303, `/sessions/${sessionId}`);
 	}

@@ -1,6 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { authorize } from '$lib/server/auth/access';
-import { ApiError, answer, parseJsonBody } from '$lib/server/api';
+import { answer, parseJsonBody } from '$lib/server/api';
+import { Problem } from '$lib/server/problem';
 import { removeCapture } from '$lib/server/captures/service';
 import { toView } from '$lib/server/captures/views';
 import { analysisSummaries, getCapture } from '$lib/server/queries/captures';
@@ -31,7 +32,7 @@ export const PATCH: RequestHandler = async ({ locals, params, request }) =>
 			if (input.filename) changes.original_filename = input.filename;
 			if (input.positionId !== undefined) {
 				const p = await trx('positions').where({ id: input.positionId, session_id: capture.sessionId }).first('id');
-				if (!p) throw new ApiError(422, 'That position belongs to another visit.', { errors: { positionId: 'Not in this visit.' } });
+				if (!p) throw new Problem(422, 'That position belongs to another visit.', { field: 'positionId' });
 				changes.position_id = p.id;
 			}
 			if (input.newPositionLabel) {

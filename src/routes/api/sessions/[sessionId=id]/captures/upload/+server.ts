@@ -1,6 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { authorize } from '$lib/server/auth/access';
-import { ApiError, answer } from '$lib/server/api';
+import { answer } from '$lib/server/api';
+import { Problem } from '$lib/server/problem';
 import { uploadThroughServer } from '$lib/server/captures/service';
 import { toView } from '$lib/server/captures/views';
 import { fieldErrors } from '$lib/server/forms';
@@ -19,15 +20,15 @@ export const POST: RequestHandler = async ({ locals, params, request }) =>
 		const sessionId = Number(params.sessionId);
 		const scope = await authorize(locals, 'capture:write', { sessionId });
 		const declared = Number(request.headers.get('content-length') ?? 0);
-		if (declared > config().UPLOAD_MAX_BYTES * 2 + 1_000_000) throw new ApiError(413, 'The upload is larger than the limit.');
+		if (declared > config().UPLOAD_MAX_BYTES * 2 + 1_000_000) throw new Problem(413, 'The upload is larger than the limit.');
 		let form: FormData;
 		try {
 			form = await request.formData();
 		} catch {
-			throw new ApiError(400, 'Send the file as multipart/form-data.');
+			throw new Problem(400, 'Send the file as multipart/form-data.');
 		}
 		const file = form.get('file');
-		if (!(file instanceof File)) throw new ApiError(422, 'Attach the WAV file in the "file" field.', { errors: { file: 'Missing.' } });
+		if (!(file instanceof File)) throw new Problem(422, 'Attach the WAV file in the "file" field.', { details: { errors: { file: 'Missing.' } } });
 		const reference = form.get('reference');
 		const num = (name: string) => (form.get(name) === null || form.get(name) === '' ? undefined : Number(form.get(name)));
 		const text = (name: string) => (form.get(name) === null || form.get(name) === '' ? undefined : String(form.get(name)));
@@ -43,7 +44,7 @@ export const POST: RequestHandler = async ({ locals, params, request }) =>
 			sweepDefinitionId: num('sweepDefinitionId'),
 			reference: reference instanceof File ? { filename: reference.name, sizeBytes: reference.size } : undefined
 		});
-		if (!parsed.success) throw new ApiError(422, 'Some fields are not valid.', { errors: fieldErrors(parsed.error) });
+		if (!parsed.success) throw new Problem(422, 'Some fields are not valid.', { details: { errors: fieldErrors(parsed.error) } });
 		const capture = await uploadThroughServer(scope, sessionId, parsed.data, file, reference instanceof File ? reference : null);
 		return json({ capture: toView(capture) }, { status: 201 });
 	});

@@ -1,0 +1,20 @@
+// The formId convention, shared by server and pages. Every form that can fail carries a hidden
+// `formId` field (`<input type="hidden" name="formId" value="band-12">`); a failed action answers
+// with that id, so a page with many forms shows the failure beside the one that was sent.
+
+export const FORM_ID_FIELD = 'formId';
+
+export type FieldErrors = Record<string, string>;
+
+export interface FormFailure {
+	formId: string | null;
+	values: Record<string, string>;
+	errors: FieldErrors;
+	message?: string;
+}
+
+/** The failure of the form with this id, if the last action that failed was that form's. */
+export function failureOf(form: unknown, formId: string): FormFailure | null {
+	const f = form as Partial<FormFailure> | null | undefined;
+	return f && typeof f === 'object' && f.formId === formId && f.errors !== undefined ? (f as FormFailure) : null;
+}
