@@ -17,7 +17,7 @@ const SAMPLE_RATE = 48000;
 const LIVING_ROOM = fileURLToPath(new URL('../../../fixtures/living_room_1.wav', import.meta.url));
 
 /**
- * Closed forms of an ideal exponential decay (REFERENCES.md, the method of Cabrera, Xun & Guski,
+ * Closed forms of an ideal exponential decay (ISO 3382-1:2009 definitions; the method of Cabrera, Xun & Guski,
  * Acoustics Australia 44:369, 2016): EDT = T20 = T30 = T; C50, C80, D50, Ts from the table.
  */
 const CLOSED_FORM = [
@@ -27,7 +27,7 @@ const CLOSED_FORM = [
 	{ t60S: 2.0, c50Db: -3.845, c80Db: -1.321, d50: 0.2921, tsMs: 144.76 }
 ];
 
-/** Tolerances are the just-noticeable differences of ISO 3382-1:2009 Annex A (from memory in REFERENCES.md). */
+/** Tolerances are the just-noticeable differences of ISO 3382-1:2009 Annex A (from memory). */
 function expectNearClosedForm(metrics: BandMetrics, expected: (typeof CLOSED_FORM)[number], label: string): void {
 	for (const value of [metrics.edtS, metrics.t20S, metrics.t30S]) {
 		expect(value, `${label} decay`).not.toBeNull();
@@ -273,7 +273,7 @@ describe('the measured living-room response (OpenAIR, Domestic Living Room, Publ
 	const bytes = readFileSync(LIVING_ROOM);
 	const result = analyseRecording(bytes);
 	// python-acoustics' values with a forward 8th-order filterbank and no onset or noise handling:
-	// sanity ranges (their tolerance ±1.5), not ISO truth (REFERENCES.md).
+	// sanity ranges (their tolerance ±1.5), not ISO truth.
 	const theirT30 = [0.274, 0.365, 0.303, 0.259, 0.227, 0.211, 0.204, 0.181];
 	const theirC80 = [18.5, 23.1, 27.0, 31.7, 35.5, 36.8, 33.5, 36.1];
 

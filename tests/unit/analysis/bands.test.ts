@@ -4,7 +4,7 @@ import { analysisBands, bandAt, bandEdgesHz, exactMidbandHz, nominalFrequencyHz 
 // Values given to 3 decimals in the source; compare to half a unit of the last digit.
 const HALF_MILLIHERTZ = 5e-4;
 
-describe('exact band frequencies (IEC 61260-1:2014, examples computed from its formulas in REFERENCES.md)', () => {
+describe('exact band frequencies (IEC 61260-1:2014, examples computed from its midband and band-edge formulas)', () => {
 	it.each([
 		{ kind: 'octave', nominal: 125, exact: 125.893, lower: 89.125, upper: 177.828 },
 		{ kind: 'octave', nominal: 1000, exact: 1000, lower: 707.946, upper: 1412.538 },
@@ -39,7 +39,7 @@ describe('exact band frequencies (IEC 61260-1:2014, examples computed from its f
 	});
 });
 
-describe('nominal labels (ISO 266, list in REFERENCES.md)', () => {
+describe('nominal labels (ISO 266:1997 preferred frequencies)', () => {
 	it('octaves 63 Hz – 8 kHz', () => {
 		expect(analysisBands('octave').map((b) => b.nominalHz)).toEqual([63, 125, 250, 500, 1000, 2000, 4000, 8000]);
 	});

@@ -111,7 +111,7 @@ describe('scripts/analyze.ts', () => {
 		const output = JSON.parse(run(fixture('living_room_1.wav')).stdout) as CliOutput;
 		expectContract(output);
 		expect(output.sampleRate).toBe(44100);
-		// python-acoustics' T30 at 1 kHz is 0.227 s, a sanity value ±1.5 (REFERENCES.md).
+		// python-acoustics' T30 at 1 kHz is 0.227 s, a sanity value ±1.5 (the tolerance of their test).
 		expect(Math.abs(output.bands[4].t30S! - 0.227)).toBeLessThanOrEqual(1.5);
 	});
 

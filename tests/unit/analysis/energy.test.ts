@@ -5,7 +5,7 @@ import { energyDecayRate } from '../../../src/lib/analysis/synthetic';
 const SAMPLE_RATE = 48000;
 
 /**
- * Closed forms for p² ∝ e^(−kt), k = 6·ln10/T (REFERENCES.md table; the method of Cabrera, Xun &
+ * Closed forms for p² ∝ e^(−kt), k = 6·ln10/T (ISO 3382-1:2009 definitions applied to it; the method of Cabrera, Xun &
  * Guski, Acoustics Australia 44:369, 2016): C_te = 10·lg(e^(k·te) − 1), D50 = 1 − e^(−0.05k), Ts = 1/k.
  */
 const CLOSED_FORM = [

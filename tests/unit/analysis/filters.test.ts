@@ -56,7 +56,7 @@ function zeroPhaseAttenuationDb(sos: Float64Array, frequencyHz: number, midHz: n
 }
 
 /**
- * IEC 61260-1:2014 class 1 limits for octave filters at Ω = G^e (two independent copies agree, REFERENCES.md, S).
+ * IEC 61260-1:2014 class 1 limits for octave filters at Ω = G^e (two independent transcriptions of the standard's table agree; not re-checked against the standard's own text).
  * min/max relative attenuation in dB; max = Infinity where only a minimum applies.
  */
 const CLASS_1_OCTAVE = [
@@ -142,7 +142,7 @@ describe('band filters of the bank: forward-backward response', () => {
 		expect(maskViolations(sos, band.exactHz, 1, 48000).failures.length).toBeGreaterThan(0);
 	});
 
-	it('single pass on the exact edges also meets class 1 (REFERENCES.md: 3rd-order Butterworth on the exact edges passes, F)', () => {
+	it('single pass on the exact edges also meets class 1 (a 3rd-order Butterworth on the exact edges passes, as a scipy design shows)', () => {
 		for (const kind of ['octave', 'third'] as const) {
 			const band = bandAt(kind, 0);
 			const sos = designButterworthBandpass(3, band.lowerHz, band.upperHz, 48000);

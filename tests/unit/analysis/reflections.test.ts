@@ -41,7 +41,7 @@ describe('speedOfSound', () => {
 
 describe('detectReflections on a synthetic impulse response', () => {
 	// The test chooses delays and levels; detection must return them within ±1 sample and
-	// ±0.5 dB (the brief's tolerance; the Hilbert tails of the other impulses change a peak by
+	// ±0.5 dB (common practice, no source; the Hilbert tails of the other impulses change a peak by
 	// < 0.01 dB here).
 	const direct = 1000;
 	const copies = [

@@ -13,8 +13,8 @@ const ROOM: RoomBox = { lengthM: 5, widthM: 4, heightM: 3 };
 describe('roomModes of a 5 × 4 × 3 m room, c = 343 m/s', () => {
 	const modes = roomModes(ROOM, 200);
 
-	// REFERENCES.md "Room modes" (F: Rayleigh's formula f = (c/2)·√((nx/L)² + (ny/W)² + (nz/H)²)),
-	// given to 0.01 Hz, hence 0.006 Hz tolerance.
+	// Computed from Rayleigh's formula f = (c/2)·√((nx/L)² + (ny/W)² + (nz/H)²) (Kuttruff, Room
+	// Acoustics, from memory), given to 0.01 Hz, hence 0.006 Hz tolerance.
 	const lowest: { n: [number, number, number]; freqHz: number; kind: string }[] = [
 		{ n: [1, 0, 0], freqHz: 34.3, kind: 'axial' },
 		{ n: [0, 1, 0], freqHz: 42.88, kind: 'axial' },
@@ -35,8 +35,7 @@ describe('roomModes of a 5 × 4 × 3 m room, c = 343 m/s', () => {
 
 	it('counts every index triple below 200 Hz, sorted by frequency', () => {
 		// Independent count: all (nx, ny, nz) ≠ 0 with Rayleigh's f ≤ 200 Hz, enumerated here over a
-		// generous index range. It gives 76 (a numpy enumeration agrees); the "71 modes" in
-		// REFERENCES.md is not reproduced by any enumeration at c = 343 m/s and is not used.
+		// generous index range. It gives 76 (a numpy enumeration agrees).
 		let counted = 0;
 		for (let nx = 0; nx < 30; nx++)
 			for (let ny = 0; ny < 30; ny++)
@@ -66,12 +65,12 @@ describe('roomModes of a 5 × 4 × 3 m room, c = 343 m/s', () => {
 });
 
 describe('schroederFrequency', () => {
-	// f_s = 2000·√(T/V) (Schroeder & Kuttruff, JASA 34:76, 1962); values in REFERENCES.md for
+	// f_s = 2000·√(T/V) (Schroeder & Kuttruff, JASA 34:76, 1962, from memory); values computed from it for
 	// V = 60 m³ are given to 0.1 Hz, hence 0.06 Hz tolerance.
 	it.each([
 		{ t60S: 0.3, volumeM3: 60, expected: 141.4 },
 		{ t60S: 0.5, volumeM3: 60, expected: 182.6 },
-		{ t60S: 2, volumeM3: 2000, expected: 2000 * Math.sqrt(2 / 2000) } // formula, F
+		{ t60S: 2, volumeM3: 2000, expected: 2000 * Math.sqrt(2 / 2000) } // from the formula
 	])('T = $t60S s, V = $volumeM3 m³ → $expected Hz', ({ t60S, volumeM3, expected }) => {
 		expect(Math.abs(schroederFrequency(t60S, volumeM3) - expected)).toBeLessThan(0.06);
 	});
@@ -86,7 +85,7 @@ describe('schroederFrequency', () => {
 });
 
 describe('expectedModeCount', () => {
-	// N(f) ≈ 4πVf³/(3c³) + πSf²/(4c²) + Lf/(8c), Kuttruff, Room Acoustics (REFERENCES.md, M);
+	// N(f) ≈ 4πVf³/(3c³) + πSf²/(4c²) + Lf/(8c), Kuttruff, Room Acoustics (from memory);
 	// V = 60 m³, S = 94 m², L = 48 m evaluated by hand here. 1e-9 relative.
 	it.each([{ freqHz: 100 }, { freqHz: 200 }, { freqHz: 1000 }])('5 × 4 × 3 m at $freqHz Hz', ({ freqHz }) => {
 		const k = freqHz / 343;

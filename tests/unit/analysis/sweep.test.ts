@@ -15,7 +15,7 @@ describe('exponential sine sweep (Farina, AES 108th Convention, preprint 5093, 2
 			const sweep = generateExponentialSweep({ ...base, f1Hz, f2Hz, durationS, sampleRate });
 			const reference = runReference<{ samples: number[] }>('sweep.py', { f1Hz, f2Hz, durationS, sampleRate }).samples;
 			expect(sweep.samples).toHaveLength(reference.length);
-			// REFERENCES.md: the two agree to 4e-11; the phase reaches ~1e4 rad, so round-off of ~1e-12·phase is expected.
+			// The two agree to about 4e-11 (measured against scipy); the phase reaches ~1e4 rad, so round-off of ~1e-12·phase is expected.
 			let worst = 0;
 			for (let i = 0; i < reference.length; i++) worst = Math.max(worst, Math.abs(sweep.samples[i] - reference[i]));
 			expect(worst).toBeLessThan(1e-9);
@@ -45,7 +45,7 @@ describe('exponential sine sweep (Farina, AES 108th Convention, preprint 5093, 2
 		{ order: 2, expected: 1.0034 },
 		{ order: 3, expected: 1.5904 },
 		{ order: 5, expected: 2.3299 }
-	])('harmonic $order leads by Δt = T·ln N / ln(f2/f1) = $expected s for T = 10 s, 20 Hz–20 kHz (REFERENCES.md, F)', ({ order, expected }) => {
+	])('harmonic $order leads by Δt = T·ln N / ln(f2/f1) = $expected s for T = 10 s, 20 Hz–20 kHz (Farina, AES 108th Convention, preprint 5093, 2000; computed from its formula)', ({ order, expected }) => {
 		// Given to 4 decimals.
 		expect(Math.abs(harmonicLeadS(order, 20, 20000, 10) - expected)).toBeLessThan(5e-5);
 	});

@@ -9,7 +9,7 @@ import {
 } from '../../../src/lib/analysis/targets';
 
 describe('ITU-R BS.1116-3 target', () => {
-	// Tm = 0.25·(V/100 m³)^(1/3) s (ITU-R BS.1116-3; REFERENCES.md, F): values given to 1 ms,
+	// Tm = 0.25·(V/100 m³)^(1/3) s (ITU-R BS.1116-3, formula from memory; values computed from it): values given to 1 ms,
 	// hence 0.6 ms tolerance.
 	it.each([
 		{ volumeM3: 50, expected: 0.198 },
@@ -52,7 +52,7 @@ describe('ITU-R BS.1116-3 target', () => {
 });
 
 describe('DIN 18041:2016 target', () => {
-	// T_soll formulas A1–A5 (DIN 18041:2016; REFERENCES.md, V) at V = 200 m³, values given to
+	// T_soll formulas A1–A5 (DIN 18041:2016, checked against the standard) at V = 200 m³, values computed from them to
 	// 0.01 s, hence 0.006 s tolerance.
 	it.each([
 		{ use: 'music' as const, expected: 1.11 },
