@@ -102,7 +102,7 @@ describe('treatment planning on the demo room', () => {
 		await page.waitForURL(/\/plan\/build/);
 
 		const diffuser = page.getByRole('article', { name: 'Build sheet: Rear diffuser' });
-		// Quadratic-residue diffuser N = 7, f0 = 500 Hz, c = 343 m/s: depths 0, 49, 196, 98, 98, 196, 49 mm (REFERENCES.md).
+		// Quadratic-residue diffuser N = 7, f0 = 500 Hz, c = 343 m/s: depths 0, 49, 196, 98, 98, 196, 49 mm (d_n = (n² mod N)·λ0/(2N), Schroeder, JASA 65:958, 1979).
 		expect(await diffuser.innerText()).toContain('0 mm, 49 mm, 196 mm, 98 mm, 98 mm, 196 mm, 49 mm');
 		expect(await seen(page.getByRole('article', { name: 'Build sheet: Left-wall absorbers' }))).toBe(true);
 		expect(await seen(page.getByText('respirator'))).toBe(true);

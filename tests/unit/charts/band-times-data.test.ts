@@ -10,7 +10,7 @@ import {
 } from '../../../src/lib/charts/band-times-data';
 
 // Everest & Pohlmann, Master Handbook of Acoustics, reverberation chapter worked example
-// (REFERENCES.md, V): untreated and tiled room, 125 Hz … 4 kHz.
+// (checked in two editions): untreated and tiled room, 125 Hz … 4 kHz.
 const CENTRES = [125, 250, 500, 1000, 2000, 4000];
 const UNTREATED = [0.54, 1.53, 2.87, 3.39, 2.06, 1.63];
 const TREATED = [0.49, 0.85, 0.56, 0.54, 0.54, 0.55];
@@ -35,7 +35,7 @@ describe('bandTimesPlotData', () => {
 	});
 
 	it('carries a target whose bands reach beyond the measured ones', () => {
-		// ITU-R BS.1116-3 for V = 100 m³: Tm = 0.250 s (REFERENCES.md, F); upper limit +0.3 s at 63 Hz.
+		// ITU-R BS.1116-3 for V = 100 m³: Tm = 0.25·(V/100 m³)^(1/3) = 0.250 s; upper limit +0.3 s at 63 Hz (formula and mask from memory).
 		const target = bs1116Target(100, [63, ...CENTRES]);
 		const data = bandTimesPlotData(BANDS, METRICS, target);
 		expect(data.x).toEqual([63, ...CENTRES]);

@@ -11,7 +11,7 @@ import {
 
 /**
  * An ideal exponential decay of reverberation time T is a straight line of slope −60/T dB/s
- * (REFERENCES.md, closed forms; Cabrera, Xun & Guski 2016). Its EDT range 0…−10 dB ends at T/6,
+ * (closed form of p² ∝ e^(−kt); Cabrera, Xun & Guski, Acoustics Australia 44:369, 2016). Its EDT range 0…−10 dB ends at T/6,
  * T20's −5…−25 dB spans T/12…5T/12 and T30's −5…−35 dB spans T/12…7T/12 (ISO 3382-1 ranges).
  */
 function idealDecay(t60S: number, durationS: number, points: number): DecayCurve {

@@ -3,7 +3,7 @@ import type { DetectedReflection } from '../../../src/lib/analysis/reflections';
 import { numberedByStrength, placeLabels, reflectionLabel, surfaceName } from '../../../src/lib/charts/etc-data';
 
 function reflection(delayMs: number, levelDb: number, surface: DetectedReflection['surface'] = null): DetectedReflection {
-	// Extra path = c·delay with c = 343 m/s (REFERENCES.md room-mode examples use the same c).
+	// Extra path = c·delay with c = 343 m/s (air at about 20 °C, common handbook value).
 	return { delayMs, levelDb, extraPathM: (343 * delayMs) / 1000, surface, predictedDelayMs: null };
 }
 

@@ -10,7 +10,7 @@ import {
 	type ResponseSeries
 } from '../../../src/lib/charts/response-data';
 
-// ISO 266 nominal one-third-octave frequencies, 20 Hz – 20 kHz (REFERENCES.md, V).
+// ISO 266:1997 nominal (preferred) one-third-octave frequencies, 20 Hz – 20 kHz.
 const ISO_266_THIRDS = [
 	20, 25, 31.5, 40, 50, 63, 80, 100, 125, 160, 200, 250, 315, 400, 500, 630, 800, 1000, 1250, 1600, 2000, 2500, 3150, 4000, 5000, 6300,
 	8000, 10000, 12500, 16000, 20000
@@ -26,7 +26,7 @@ describe('one-third-octave centres', () => {
 	it('are the IEC 61260-1 base-ten centres 1000·10^(x/10) with ISO 266 names', () => {
 		const centres = thirdOctaveCentres(19, 21000);
 		expect(centres).toHaveLength(31);
-		// IEC 61260-1 example (REFERENCES.md, F): third 63 → 63.096 Hz; 1e-3 Hz is the precision quoted.
+		// IEC 61260-1:2014 midband formula 1000·10^(x/10): third 63 → 63.096 Hz; 1e-3 Hz is the precision quoted.
 		expect(centres[5]).toBeCloseTo(63.096, 3);
 		centres.forEach((f, i) => expect(f).toBeCloseTo(1000 * 10 ** ((i - 17) / 10), 9));
 		expect(centres.map(nominalThirdOctave)).toEqual(ISO_266_THIRDS);
@@ -85,12 +85,12 @@ describe('responsePlotData and responseCsvRows', () => {
 
 describe('modesToMark', () => {
 	it('keeps the modes at or below the Schroeder frequency, in order', () => {
-		// 5 × 4 × 3 m room (REFERENCES.md, F): 34.30 (1,0,0), 42.88 (0,1,0), 54.91 (1,1,0), 57.17 (0,0,1), 66.67 (1,0,1) Hz …
+		// 5 × 4 × 3 m room, Rayleigh's formula at c = 343 m/s: 34.30 (1,0,0), 42.88 (0,1,0), 54.91 (1,1,0), 57.17 (0,0,1), 66.67 (1,0,1) Hz …
 		const modes = roomModes({ lengthM: 5, widthM: 4, heightM: 3 }, 200).map((m) => ({ freqHz: m.freqHz, kind: m.kind, label: m.n.join(',') }));
 		const marked = modesToMark([...modes].reverse(), 60);
 		expect(marked.map((m) => m.label)).toEqual(['1,0,0', '0,1,0', '1,1,0', '0,0,1']);
 		expect(marked.map((m) => m.kind)).toEqual(['axial', 'axial', 'tangential', 'axial']);
-		// Schroeder frequency 141.4 Hz for T = 0.3 s in this room (REFERENCES.md, F): every mode up to it, none above.
+		// Schroeder frequency 141.4 Hz for T = 0.3 s in this room (2000·√(T/V), Schroeder & Kuttruff, JASA 34:76, 1962): every mode up to it, none above.
 		const belowSchroeder = modesToMark(modes, 141.4);
 		expect(belowSchroeder.length).toBe(modes.filter((m) => m.freqHz <= 141.4).length);
 		expect(Math.max(...belowSchroeder.map((m) => m.freqHz))).toBeLessThanOrEqual(141.4);

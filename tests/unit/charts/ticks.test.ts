@@ -13,7 +13,7 @@ import {
 
 describe('octaveTicks', () => {
 	it('gives the ISO 266 nominal octave frequencies across the audio range', () => {
-		// ISO 266 nominal octave mid-band frequencies (the nominal third list in REFERENCES.md, every third entry).
+		// ISO 266 nominal octave mid-band frequencies (ISO 266:1997 preferred frequencies: every third entry of the one-third-octave list).
 		expect(octaveTicks(20, 20000)).toEqual([31.5, 63, 125, 250, 500, 1000, 2000, 4000, 8000, 16000]);
 	});
 
