@@ -21,7 +21,7 @@ function syntheticIr(direct: number, copies: { delay: number; levelDb: number; s
 
 describe('speedOfSound', () => {
 	// c = 331.3·√(1 + θ/273.15) m/s: ideal gas with 331.3 m/s at 0 °C (Kinsler et al.,
-	// Fundamentals of Acoustics, from memory); 343.2 m/s at 20 °C follows from it (F).
+	// Fundamentals of Acoustics, from memory); 343.2 m/s at 20 °C follows from it.
 	// Tolerance 0.05 m/s: the reference values are given to 0.1 m/s.
 	it.each([
 		{ temperatureC: 0, expected: 331.3 },
