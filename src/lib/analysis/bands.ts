@@ -1,4 +1,5 @@
 /** Octave and one-third-octave bands: exact frequencies per IEC 61260-1:2014, nominal labels per ISO 266. */
+import { formatHz } from '../format';
 
 export type BandKind = 'octave' | 'third';
 
@@ -69,7 +70,5 @@ export function analysisBands(kind: BandKind): Band[] {
 	return bands;
 }
 
-/** Short label for messages: "125 Hz", "1.25 kHz". */
-export function bandLabel(nominalHz: number): string {
-	return nominalHz >= 1000 ? `${nominalHz / 1000} kHz` : `${nominalHz} Hz`;
-}
+/** Short label for messages: "125 Hz", "1.25 kHz" — the one frequency format of $lib/format. */
+export const bandLabel: (nominalHz: number) => string = formatHz;

@@ -41,7 +41,6 @@ export {
 	analysisBands,
 	bandAt,
 	bandEdgesHz,
-	bandLabel,
 	exactMidbandHz,
 	nominalFrequencyHz,
 	OCTAVE_RATIO,

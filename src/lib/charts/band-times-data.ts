@@ -1,7 +1,7 @@
 // Data for the reverberation-time-per-band chart: metrics and target on the band centres.
 import { alignSeries } from './align';
 import type { CsvCell } from './csv';
-import { bandName } from './ticks';
+import { formatBand } from '../format';
 
 export interface BandTimes {
 	centerHz: number;
@@ -91,7 +91,7 @@ export function bandTimesTable(bands: readonly BandTimes[], metrics: readonly Ba
 		});
 		const t = targetAt.get(b.centerHz);
 		const targetCells = withTarget ? [t?.targetS ?? null, t?.lowerS ?? null, t?.upperS ?? null] : [];
-		return [b.label ?? bandName(b.centerHz), b.centerHz, ...values, ...targetCells];
+		return [b.label ?? formatBand(b.centerHz), b.centerHz, ...values, ...targetCells];
 	});
 	return { headers, rows, hasMissing };
 }

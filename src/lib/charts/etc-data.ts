@@ -1,7 +1,7 @@
 // Data for the energy–time chart: reflection labels, their placement without overlaps, and
 // the table rows.
 import type { DetectedReflection } from '../analysis/reflections';
-import { formatNumber } from './format';
+import { formatDb, formatNumber } from '../format';
 
 const SURFACE_NAMES: Record<NonNullable<DetectedReflection['surface']>, string> = {
 	floor: 'floor',
@@ -18,7 +18,7 @@ export function surfaceName(surface: DetectedReflection['surface']): string | nu
 
 /** "4.2 ms · −6.1 dB · 1.44 m · floor" (surface only when it was identified). */
 export function reflectionLabel(r: DetectedReflection): string {
-	const parts = [`${formatNumber(r.delayMs, 1)} ms`, `${formatNumber(r.levelDb, 1)} dB`, `${formatNumber(r.extraPathM, 2)} m`];
+	const parts = [`${formatNumber(r.delayMs, 1)} ms`, `${formatDb(r.levelDb)} dB`, `${formatNumber(r.extraPathM, 2)} m`];
 	const surface = surfaceName(r.surface);
 	if (surface) parts.push(surface);
 	return parts.join(' · ');

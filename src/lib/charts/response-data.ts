@@ -2,7 +2,7 @@
 // centres, the CSV of every point, and the modes worth marking.
 import { alignSeries, interpolateLogFrequency, type AlignedSeries } from './align';
 import type { CsvCell } from './csv';
-import { roundSignificant } from './format';
+import { roundSignificant } from '../format';
 import type { SeriesTone } from './palette';
 
 export interface ResponseSeries {

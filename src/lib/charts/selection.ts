@@ -1,5 +1,5 @@
 // A frequency range chosen by dragging across a response chart.
-import { roundSignificant } from './format';
+import { roundSignificant } from '../format';
 
 export interface FrequencyRange {
 	fLoHz: number;

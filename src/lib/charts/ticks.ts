@@ -1,5 +1,5 @@
-// Axis ticks: octave ticks on log-frequency axes, frequency labels, and dB tick steps.
-import { roundSignificant } from './format';
+// Axis ticks: octave ticks on log-frequency axes, their labels, and dB tick steps.
+import { formatHzAxis, roundSignificant } from '../format';
 
 /** Nominal octave mid-band frequencies, ISO 266 (the values printed on octave axes). */
 export const OCTAVE_TICKS_HZ = [16, 31.5, 63, 125, 250, 500, 1000, 2000, 4000, 8000, 16000] as const;
@@ -9,24 +9,6 @@ export function octaveTicks(minHz: number, maxHz: number): number[] {
 	if (!(minHz > 0) || !(maxHz > minHz)) throw new RangeError(`need 0 < minHz < maxHz, got ${minHz}…${maxHz}`);
 	// 0.5 % slack so a range drawn from exactly 31.5 Hz still shows its first tick.
 	return OCTAVE_TICKS_HZ.filter((f) => f >= minHz * 0.995 && f <= maxHz * 1.005);
-}
-
-function trimZeros(text: string): string {
-	return text.includes('.') ? text.replace(/\.?0+$/, '') : text;
-}
-
-/** Short axis label: "31.5", "63", "1k", "2.5k", "12.5k" (three significant figures). */
-export function frequencyLabel(hz: number): string {
-	if (!Number.isFinite(hz) || hz <= 0) throw new RangeError(`frequency must be > 0 Hz, got ${hz}`);
-	const rounded = roundSignificant(hz, 3);
-	return rounded >= 1000 ? `${trimZeros((rounded / 1000).toFixed(2))}k` : trimZeros(rounded.toFixed(1));
-}
-
-/** Label for prose and tables: "125 Hz", "2.5 kHz", "Broadband". */
-export function bandName(centerHz: number | 'broadband'): string {
-	if (centerHz === 'broadband') return 'Broadband';
-	const short = frequencyLabel(centerHz);
-	return short.endsWith('k') ? `${short.slice(0, -1)} kHz` : `${short} Hz`;
 }
 
 /**
@@ -43,7 +25,7 @@ export function octaveTickLabels(ticksHz: readonly number[], stride: number): st
 	if (!Number.isInteger(stride) || stride < 1) throw new RangeError(`stride must be an integer ≥ 1, got ${stride}`);
 	return ticksHz.map((f) => {
 		const octavesFrom1k = Math.round(Math.log2(f / 1000));
-		return octavesFrom1k % stride === 0 ? frequencyLabel(f) : '';
+		return octavesFrom1k % stride === 0 ? formatHzAxis(f) : '';
 	});
 }
 

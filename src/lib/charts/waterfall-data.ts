@@ -2,7 +2,8 @@
 // at octave frequencies every 50 ms.
 import { interpolateLogFrequency, nearestIndex } from './align';
 import type { CsvCell } from './csv';
-import { bandName, octaveTicks } from './ticks';
+import { formatBand } from '../format';
+import { octaveTicks } from './ticks';
 
 export interface Waterfall {
 	timesMs: number[];
@@ -68,7 +69,7 @@ export function waterfallTable(w: Waterfall, stepMs = 50): WaterfallTable {
 			return v === null ? null : Math.round(v * 10) / 10;
 		})
 	]);
-	return { headers: ['Time (ms)', ...freqs.map((f) => `${bandName(f)} (dB)`)], rows };
+	return { headers: ['Time (ms)', ...freqs.map((f) => `${formatBand(f)} (dB)`)], rows };
 }
 
 /** Every sample, one row per slice and frequency, for the download. */

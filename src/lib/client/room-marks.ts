@@ -1,6 +1,7 @@
 // What every chart of a room shows besides the measurement: its modes below the Schroeder
 // frequency, its problem bands, and its target.
 import { roomModes, schroederFrequency } from '../analysis/room';
+import { formatHz } from '../format';
 import { bs1116Target, type TargetBand } from '../analysis/targets';
 import type { ModeMarker } from '../charts/response-data';
 import type { ProblemBandView } from '../results/types';
@@ -20,7 +21,7 @@ export function modeMarks(room: RoomDims, t60S: number | null): { modes: ModeMar
 	const fs = schroederFrequency(t60S, room.volumeM3);
 	const modes = roomModes(room, fs)
 		.slice(0, 120)
-		.map((m) => ({ freqHz: m.freqHz, kind: m.kind, label: `(${m.n.join(',')}) ${m.freqHz.toFixed(1)} Hz ${m.kind}` }));
+		.map((m) => ({ freqHz: m.freqHz, kind: m.kind, label: `(${m.n.join(',')}) ${formatHz(m.freqHz)} ${m.kind}` }));
 	return { modes, schroederHz: fs };
 }
 

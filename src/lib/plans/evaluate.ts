@@ -1,6 +1,7 @@
 // A room's plan worked through: surfaces and their finishes, what each item absorbs, the room
 // calibrated to its measured baseline, the predicted T per band by each formula with the one to
 // read, the target, and — once the room has been measured again — predicted against measured.
+import { formatHz } from '../format';
 import type { TargetBand } from '../analysis/targets';
 import { DEFAULT_AIR } from '../treatment/air';
 import type { AtmosphereConditions } from '../treatment/airAbsorption';
@@ -250,7 +251,7 @@ export function evaluatePlan(input: PlanInput): PlanEvaluation {
 		warnings.push(
 			calibrationKind === 'assumed finishes only'
 				? 'no measured baseline: the prediction rests on the assumed finishes alone; pick the visit before treatment to calibrate it'
-				: `bands without a measurement (${bands.filter((b) => !b.calibrated).map((b) => `${b.bandHz} Hz`).join(', ')}) rest on the assumed finishes alone`
+				: `bands without a measurement (${bands.filter((b) => !b.calibrated).map((b) => formatHz(b.bandHz)).join(', ')}) rest on the assumed finishes alone`
 		);
 	}
 	for (const item of items) for (const w of item.warnings) warnings.push(`${plan.items.find((p) => p.id === item.id)!.label}: ${w}`);

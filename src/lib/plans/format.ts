@@ -1,5 +1,6 @@
 // Numbers of a plan as people read them, in the user's units: millimetres or inches with
-// sixteenths for lengths, m² or ft² for areas, kg or lb for weights.
+// sixteenths for lengths, m² or ft² for areas, kg or lb for weights. Frequencies, times and
+// changes are written by $lib/format.
 import { formatInches, mmToInches, type LengthUnit } from '../treatment/units';
 
 /** 1 ft = 0.3048 m and 1 lb = 0.45359237 kg exactly (international yard and pound, 1959). */
@@ -45,20 +46,4 @@ export function moneyText(amount: number, currency: string): string {
 	} catch {
 		return `${amount.toFixed(2)} ${currency}`;
 	}
-}
-
-/** "125 Hz", "2 kHz", "1.4 kHz". */
-export function hzText(hz: number): string {
-	return hz >= 1000 ? `${trimmed(hz / 1000, 1)} kHz` : `${Math.round(hz)} Hz`;
-}
-
-/** "+0.02", "−0.04", "0.00": signed by the value as shown, so a difference that rounds to nothing has no sign. */
-export function signedText(value: number, decimals: number): string {
-	const shown = Number(value.toFixed(decimals));
-	return `${shown > 0 ? '+' : shown < 0 ? '−' : ''}${Math.abs(shown).toFixed(decimals)}`;
-}
-
-/** A target's tolerance in seconds, "0.17–0.27", or "—" without a target. */
-export function targetRangeText(target: { lowerS: number; upperS: number } | null): string {
-	return target ? `${target.lowerS.toFixed(2)}–${target.upperS.toFixed(2)}` : '—';
 }

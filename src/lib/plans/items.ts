@@ -1,5 +1,6 @@
 // What one planned item does acoustically: its absorption per planning band (referred to its
 // face area), the range it acts on, and a one-line account of how that was worked out.
+import { formatHz, formatHzRange } from '../format';
 import { DEFAULT_AIR, type AirProperties } from '../treatment/air';
 import { octaveEdgesHz, PLANNING_BANDS_HZ } from '../treatment/bands';
 import { designDiffuser, type DiffuserDesign } from '../treatment/diffuser';
@@ -29,8 +30,6 @@ export interface ItemAcoustics {
 	/** The full design of a diffuser item. */
 	diffuser: DiffuserDesign | null;
 }
-
-const hz = (f: number) => (f >= 1000 ? `${(f / 1000).toFixed(1)} kHz` : `${f.toFixed(0)} Hz`);
 
 export function porousLayerOf(p: PorousParams): Required<PorousLayer> {
 	return { flowResistivity: p.flowResistivity, thicknessM: p.thicknessMm / 1000, airGapM: p.airGapMm / 1000, model: p.model ?? 'miki' };
@@ -72,7 +71,7 @@ function porousAcoustics(p: PorousParams, air: AirProperties): Omit<ItemAcoustic
 		coefficients,
 		actionRangeHz: range,
 		normalIncidence: normal,
-		method: `${material}, ${p.thicknessMm} mm${p.airGapMm > 0 ? ` + ${p.airGapMm} mm air gap` : ' on the wall'}: ${MODEL_NAMES[layer.model]}, layer and gap by transfer matrix (rigid backing), random incidence by Paris' formula from the normal-incidence surface impedance${range ? `; α ≥ ${POROUS_TARGET_ALPHA} from ${hz(range.loHz)}` : ''}.`,
+		method: `${material}, ${p.thicknessMm} mm${p.airGapMm > 0 ? ` + ${p.airGapMm} mm air gap` : ' on the wall'}: ${MODEL_NAMES[layer.model]}, layer and gap by transfer matrix (rigid backing), random incidence by Paris' formula from the normal-incidence surface impedance${range ? `; α ≥ ${POROUS_TARGET_ALPHA} from ${formatHz(range.loHz)}` : ''}.`,
 		warnings,
 		diffuser: null
 	};
@@ -94,7 +93,7 @@ function membraneAcoustics(p: MembraneParams, air: AirProperties): Omit<ItemAcou
 		coefficients: membraneBandAbsorption(trap, air),
 		actionRangeHz: membraneActionRangeHz(f0),
 		normalIncidence: null,
-		method: `${p.panelThicknessMm} mm ${stock.name.toLowerCase()} (m′ = ${mass.toFixed(1)} kg/m²) over ${p.cavityDepthMm} mm ${p.cavityFill === 'porous' ? 'fibre-filled' : 'empty'} cavity: f0 = ${formula} ≈ ${f0.toFixed(0)} Hz, the panel's mass on the cavity's air spring (Everest & Pohlmann, Master Handbook of Acoustics); planning absorption curve peaking at 0.4 (common practice, no source).`,
+		method: `${p.panelThicknessMm} mm ${stock.name.toLowerCase()} (m′ = ${mass.toFixed(1)} kg/m²) over ${p.cavityDepthMm} mm ${p.cavityFill === 'porous' ? 'fibre-filled' : 'empty'} cavity: f0 = ${formula} ≈ ${formatHz(f0)}, the panel's mass on the cavity's air spring (Everest & Pohlmann, Master Handbook of Acoustics); planning absorption curve peaking at 0.4 (common practice, no source).`,
 		warnings: membraneModelWarnings(trap, air),
 		diffuser: null
 	};
@@ -119,7 +118,7 @@ function diffuserAcoustics(p: DiffuserParams, air: AirProperties): Omit<ItemAcou
 		coefficients: PLANNING_BANDS_HZ.map(() => DIFFUSER_ABSORPTION_ESTIMATE),
 		normalIncidence: null,
 		actionRangeHz: design.workingRangeHz,
-		method: `${name} sequence N = ${p.prime}, f0 = ${hz(design.designFrequencyHz)}, ${p.wellWidthMm} mm wells: scatters ${hz(design.workingRangeHz.loHz)}–${hz(design.workingRangeHz.hiHz)}; absorbs about ${DIFFUSER_ABSORPTION_ESTIMATE} (planning value).`,
+		method: `${name} sequence N = ${p.prime}, f0 = ${formatHz(design.designFrequencyHz)}, ${p.wellWidthMm} mm wells: scatters ${formatHzRange(design.workingRangeHz.loHz, design.workingRangeHz.hiHz)}; absorbs about ${DIFFUSER_ABSORPTION_ESTIMATE} (planning value).`,
 		warnings: design.warnings,
 		diffuser: design
 	};

@@ -1,5 +1,6 @@
 // The planner's proposals for a problem band, turned into items a consultant can add as they
 // are or adjust first: sizes that suit the kind, the surface where it usually goes.
+import { formatHz } from '../format';
 import { planTreatment, type PlannerOptions, type Proposal } from '../treatment/planner';
 import type { SurfaceId } from '../treatment/surfaces';
 import type { PlanItem } from './types';
@@ -44,7 +45,7 @@ export function draftFromProposal(proposal: Proposal, problemBandId: number | nu
 		case 'membrane-trap':
 			return {
 				...base,
-				label: `Panel trap ${proposal.trap.resonanceHz.toFixed(0)} Hz`,
+				label: `Panel trap ${formatHz(proposal.trap.resonanceHz)}`,
 				params: {
 					kind: 'membrane',
 					panelThicknessMm: proposal.trap.panelThicknessMm,

@@ -2,7 +2,8 @@
 // predicted reverberation time per band beside the target and, once measured, the result.
 import type { LengthUnit } from '../treatment/units';
 import type { PlanEvaluation } from './evaluate';
-import { hzText, moneyText, sizeText } from './format';
+import { formatHz } from '../format';
+import { moneyText, sizeText } from './format';
 import { ITEM_KIND_LABELS, SURFACE_LABELS, type PlanItem } from './types';
 import type { PlanCost } from './build';
 import { unitWidthMm } from './items';
@@ -31,7 +32,7 @@ function itemLine(item: PlanItem, evaluation: PlanEvaluation, unit: LengthUnit):
 	const result = evaluation.items.find((r) => r.id === item.id);
 	const where = item.surface ? `on the ${SURFACE_LABELS[item.surface].toLowerCase()}` : 'free-standing';
 	const kind = ITEM_KIND_LABELS[item.params.kind].toLowerCase();
-	const acts = result?.actionRangeHz ? `, working from ${hzText(result.actionRangeHz.loHz)} to ${hzText(result.actionRangeHz.hiHz)}` : '';
+	const acts = result?.actionRangeHz ? `, working from ${formatHz(result.actionRangeHz.loHz)} to ${formatHz(result.actionRangeHz.hiHz)}` : '';
 	const verb = item.params.kind === 'diffuser' ? 'scatters sound' : 'absorbs sound';
 	return `${item.quantity} × ${item.label} (${kind}, ${sizeText(unitWidthMm(item), item.heightMm, unit)}) ${where}: ${verb}${acts}.`;
 }

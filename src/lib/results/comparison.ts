@@ -2,11 +2,10 @@
 // and the reverberation verdicts against a target before and after.
 import { bandDifferences } from '../analysis/compare';
 import { bs1116Target, judgeAgainstTarget, sameBand, type TargetBand } from '../analysis/targets';
-import type { ComparisonResult, SourcedVerdict } from './extra-types';
 import { reverberationOf, type Side } from './reverberation';
 import { averagePositions } from './session';
 import { plainSummary } from './summary';
-import { AVERAGED_METRICS, type RoomFacts, type SessionSummary } from './types';
+import { AVERAGED_METRICS, type ComparisonResult, type RoomFacts, type SessionSummary, type SourcedVerdict } from './types';
 
 /** Room uses for critical listening, where ITU-R BS.1116-3 gives the default target. */
 const LISTENING_USES: readonly string[] = ['listening', 'control', 'home-theatre'];

@@ -3,10 +3,9 @@
 // then bands from low to high, then early reflections, then which positions were compared.
 import type { BandDifference } from '../analysis/compare';
 import { sameBand, type BandVerdict } from '../analysis/targets';
-import type { ReverberationValue } from './extra-types';
-import { formatCount, formatDecibels, formatFrequency, formatPercent, formatSeconds, joinList } from './format';
-import { reverberationOf } from './reverberation';
-import type { ComparisonModel, PositionResult } from './types';
+import { capitalise, formatCount, formatDb, formatHz, formatList, formatPercent, formatSeconds } from '../format';
+import { bandTimesOf, MID_FREQUENCY_BANDS_HZ, midFrequencyReverberation, reverberationOf } from './reverberation';
+import type { ComparisonModel, PositionResult, ReverberationValue } from './types';
 
 /** A band's reverberation change worth a sentence: the JND of reverberation time, 5 % (ISO 3382-1:2009 Annex A, from memory). */
 export const NOTABLE_REVERBERATION_CHANGE = 0.05;
@@ -15,8 +14,6 @@ export const NOTABLE_CLARITY_CHANGE_DB = 1;
 export const MAX_SUMMARY_SENTENCES = 8;
 /** Reflections counted down to this level re the direct sound (the engine's default threshold). */
 const REFLECTION_FLOOR_DB = -20;
-/** Mid-frequency reverberation: mean of the 500 Hz and 1 kHz octaves (ISO 3382-1 single-number Tmid, from memory). */
-const MID_BANDS_HZ = [500, 1000];
 /** Range over which the C80 change is averaged for the sentence about clarity. */
 const CLARITY_RANGE_HZ = { low: 500, high: 2000 };
 
@@ -24,6 +21,7 @@ const TERM: Record<'t30S' | 't20S', string> = {
 	t30S: 'reverberation time (T30)',
 	t20S: 'reverberation time (T20, as T30 could not be measured reliably)'
 };
+const MIXED_TERM = 'reverberation time (T30, and T20 where T30 could not be measured reliably)';
 
 interface BandChange {
 	band: BandDifference;
@@ -44,8 +42,6 @@ const MISSING_WHERE: Record<MissingSide, string> = {
 
 const mean = (values: number[]) => values.reduce((sum, v) => sum + v, 0) / values.length;
 
-const capitalise = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
-
 function changeVerb(before: number, after: number): string {
 	return after < before ? 'fell' : 'rose';
 }
@@ -54,28 +50,20 @@ function verdictAt(verdicts: BandVerdict[], centerHz: number): BandVerdict | und
 	return verdicts.find((v) => sameBand(v.centerHz, centerHz));
 }
 
-function bandAt(model: ComparisonModel, centerHz: number): BandDifference | undefined {
-	return model.differences.find((d) => sameBand(d.centerHz, centerHz));
-}
-
-/** Reverberation in the middle frequencies, on T30 in all four values, else T20 in all four. */
+/** Reverberation in the middle frequencies: T_mid of each visit, T30 per band, else T20. */
 function midFrequencySentence(model: ComparisonModel): string | null {
-	const bands = MID_BANDS_HZ.map((f) => bandAt(model, f));
-	if (bands.some((b) => b === undefined)) return null;
-	for (const metric of ['t30S', 't20S'] as const) {
-		const before = bands.map((b) => b?.metrics[metric]?.before ?? null);
-		const after = bands.map((b) => b?.metrics[metric]?.after ?? null);
-		if ([...before, ...after].some((v) => v === null)) continue;
-		const b = mean(before as number[]);
-		const a = mean(after as number[]);
-		const change = (a - b) / b;
-		const opening = `In the middle frequencies (500 Hz and 1 kHz) the ${TERM[metric]}`;
-		if (Math.abs(change) < NOTABLE_REVERBERATION_CHANGE) {
-			return `${opening} stayed about the same: ${formatSeconds(b)} s before, ${formatSeconds(a)} s after.`;
-		}
-		return `${opening} ${changeVerb(b, a)} by ${formatPercent(Math.abs(change))} %, from ${formatSeconds(b)} s to ${formatSeconds(a)} s.`;
+	const before = midFrequencyReverberation(bandTimesOf(model.differences, 'before'));
+	const after = midFrequencyReverberation(bandTimesOf(model.differences, 'after'));
+	if (before === null || after === null) return null;
+	const used = new Set([...before.metrics, ...after.metrics]);
+	const term = used.has('t20S') ? (used.has('t30S') ? MIXED_TERM : TERM.t20S) : TERM.t30S;
+	const [b, a] = [before.valueS, after.valueS];
+	const change = (a - b) / b;
+	const opening = `In the middle frequencies (${formatHz(MID_FREQUENCY_BANDS_HZ[0])} and ${formatHz(MID_FREQUENCY_BANDS_HZ[1])}) the ${term}`;
+	if (Math.abs(change) < NOTABLE_REVERBERATION_CHANGE) {
+		return `${opening} stayed about the same: ${formatSeconds(b)} s before, ${formatSeconds(a)} s after.`;
 	}
-	return null;
+	return `${opening} ${changeVerb(b, a)} by ${formatPercent(Math.abs(change))} %, from ${formatSeconds(b)} s to ${formatSeconds(a)} s.`;
 }
 
 function targetCountSentence(model: ComparisonModel): string | null {
@@ -104,8 +92,8 @@ function claritySentence(model: ComparisonModel): string | null {
 	if (changes.length === 0) return null;
 	const change = mean(changes);
 	if (Math.abs(change) < NOTABLE_CLARITY_CHANGE_DB) return null;
-	const range = `${formatFrequency(CLARITY_RANGE_HZ.low)} and ${formatFrequency(CLARITY_RANGE_HZ.high)}`;
-	return `Clarity for music (C80) ${change > 0 ? 'rose' : 'fell'} by ${formatDecibels(Math.abs(change))} dB on average between ${range}.`;
+	const range = `${formatHz(CLARITY_RANGE_HZ.low)} and ${formatHz(CLARITY_RANGE_HZ.high)}`;
+	return `Clarity for music (C80) ${change > 0 ? 'rose' : 'fell'} by ${formatDb(Math.abs(change))} dB on average between ${range}.`;
 }
 
 function targetClause(change: BandChange): string {
@@ -131,7 +119,7 @@ function fallbackNote(change: BandChange): string {
 
 function bandSentence(change: BandChange, term: string): string {
 	const { before, after } = change;
-	const frequency = formatFrequency(change.band.centerHz);
+	const frequency = formatHz(change.band.centerHz);
 	const movement =
 		before.valueS === after.valueS
 			? `stayed at ${formatSeconds(after.valueS)} s`
@@ -200,10 +188,10 @@ function positionSentence(model: ComparisonModel): string {
 	const verb = (labels: string[]) => (labels.length === 1 ? 'was' : 'were');
 	let sentence = `Compared at ${count} ${count === 1 ? 'position' : 'positions'} measured in both visits`;
 	if (model.baselineOnly.length > 0) {
-		sentence += `; ${joinList(model.baselineOnly)} ${verb(model.baselineOnly)} measured only before`;
-		if (model.treatedOnly.length > 0) sentence += ` and ${joinList(model.treatedOnly)} only after`;
+		sentence += `; ${formatList(model.baselineOnly)} ${verb(model.baselineOnly)} measured only before`;
+		if (model.treatedOnly.length > 0) sentence += ` and ${formatList(model.treatedOnly)} only after`;
 	} else if (model.treatedOnly.length > 0) {
-		sentence += `; ${joinList(model.treatedOnly)} ${verb(model.treatedOnly)} measured only after`;
+		sentence += `; ${formatList(model.treatedOnly)} ${verb(model.treatedOnly)} measured only after`;
 	}
 	return `${sentence}.`;
 }
@@ -226,7 +214,7 @@ export function plainSummary(model: ComparisonModel): string[] {
 	const missingSentences = (['baseline', 'treated', 'both'] as const)
 		.filter((side) => missing.has(side))
 		.map((side) => {
-			const where = joinList((missing.get(side) ?? []).map(formatFrequency));
+			const where = formatList((missing.get(side) ?? []).map(formatHz));
 			return `${capitalise(term())} could not be measured reliably at ${where} ${MISSING_WHERE[side]}.`;
 		});
 	return [...overall, ...bandSentences, ...missingSentences, ...closing];

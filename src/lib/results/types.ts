@@ -2,7 +2,7 @@
 // stored analysis, a visit's spatial average, and the comparison of two visits of a room.
 import type { BandMetrics, SmoothingKey } from '../analysis/types';
 import type { DetectedReflection } from '../analysis/reflections';
-import type { BandDifference, AveragedBand } from '../analysis/compare';
+import type { AveragedBand, BandDifference } from '../analysis/compare';
 import type { BandVerdict, TargetBand } from '../analysis/targets';
 
 /** The metrics averaged over positions and compared between visits. */
@@ -81,4 +81,25 @@ export interface ComparisonModel {
 	verdicts: { before: BandVerdict[]; after: BandVerdict[] };
 	/** Plain-words sentences for people without acoustics training. */
 	summary: string[];
+}
+
+/** T30 when it could be measured, T20 in its place otherwise. */
+export type ReverberationMetric = 't30S' | 't20S';
+
+export interface ReverberationValue {
+	valueS: number | null;
+	/** The metric behind valueS; null when neither could be measured. */
+	metric: ReverberationMetric | null;
+}
+
+/** A verdict that also says which metric it was judged on. */
+export interface SourcedVerdict extends BandVerdict {
+	metric: ReverberationMetric | null;
+}
+
+/** The comparison with the verdicts' metrics and the matched-position averages it was computed from. */
+export interface ComparisonResult extends ComparisonModel {
+	verdicts: { before: SourcedVerdict[]; after: SourcedVerdict[] };
+	/** Both visits averaged over the matched positions only (what differences and verdicts use). */
+	matchedAverage: { baseline: AveragedBand[]; treated: AveragedBand[] };
 }

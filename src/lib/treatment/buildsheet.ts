@@ -1,4 +1,5 @@
 // Parts lists for building the treatment from sheet goods. Dimensions in mm.
+import { formatHz } from '../format';
 import type { DiffuserDesign } from './diffuser';
 import { checkPart, mergeIdenticalParts, type Part } from './parts';
 
@@ -87,7 +88,7 @@ export function diffuserBuildSheet(design: DiffuserDesign, options: DiffuserBuil
 	}
 	const savedPct = solidVolume > 0 ? (hollowVolume / solidVolume) * 100 : 0;
 	return finish(
-		`${design.kind === 'quadratic-residue' ? 'QRD' : 'PRD'} N = ${design.prime}, f0 = ${design.designFrequencyHz.toFixed(0)} Hz`,
+		`${design.kind === 'quadratic-residue' ? 'QRD' : 'PRD'} N = ${design.prime}, f0 = ${formatHz(design.designFrequencyHz)}`,
 		parts,
 		{ widthMm: round1(width), heightMm: H, depthMm: round1(depth + board) },
 		[

@@ -1,4 +1,5 @@
 // Schroeder diffusers: quadratic-residue and primitive-root well sequences and the panel design.
+import { formatHz } from '../format';
 import { DEFAULT_SPEED_OF_SOUND } from './air';
 
 export type DiffuserKind = 'quadratic-residue' | 'primitive-root';
@@ -147,7 +148,7 @@ export function designDiffuser(spec: DiffuserSpec): DiffuserDesign {
 	if (spec.maxDepthM !== undefined && deepestAt(f0) > spec.maxDepthM) {
 		const raised = (sMax * c) / (2 * N * spec.maxDepthM);
 		warnings.push(
-			`the deepest well at ${f0.toFixed(0)} Hz would be ${(deepestAt(f0) * 1000).toFixed(0)} mm, more than the ${(spec.maxDepthM * 1000).toFixed(0)} mm allowed; design frequency raised to ${raised.toFixed(0)} Hz`
+			`the deepest well at ${formatHz(f0)} would be ${(deepestAt(f0) * 1000).toFixed(0)} mm, more than the ${(spec.maxDepthM * 1000).toFixed(0)} mm allowed; design frequency raised to ${formatHz(raised)}`
 		);
 		f0 = raised;
 	}
@@ -156,14 +157,14 @@ export function designDiffuser(spec: DiffuserSpec): DiffuserDesign {
 	const wellWidthLimitHz = c / (2 * spec.wellWidthM);
 	if (wellWidthLimitHz <= f0) {
 		warnings.push(
-			`the well-width limit c/(2w) = ${wellWidthLimitHz.toFixed(0)} Hz is not above the design frequency ${f0.toFixed(0)} Hz; narrow the wells`
+			`the well-width limit c/(2w) = ${formatHz(wellWidthLimitHz)} is not above the design frequency ${formatHz(f0)}; narrow the wells`
 		);
 	}
 	const flatPlateFrequenciesHz: number[] = [];
 	for (let m = 1; m * N * f0 <= AUDIBLE_LIMIT_HZ; m++) flatPlateFrequenciesHz.push(m * N * f0);
 	const inside = flatPlateFrequenciesHz.filter((f) => f > f0 && f < wellWidthLimitHz);
 	if (inside.length > 0) {
-		warnings.push(`flat-plate frequencies inside the working range: ${inside.map((f) => f.toFixed(0)).join(', ')} Hz`);
+		warnings.push(`flat-plate frequencies inside the working range: ${inside.map(formatHz).join(', ')}`);
 	}
 	const wellCount = sequence.length;
 	return {

@@ -1,4 +1,5 @@
 // Cross-section drawing of a diffuser's well profile, seen from above.
+import { formatHz } from '../format';
 import type { DiffuserDesign } from './diffuser';
 import { DRAWING_FONT, escapeXml, line, PALETTE, px, rect, text } from './svg';
 import { formatLength, type LengthUnit } from './units';
@@ -33,7 +34,7 @@ export function diffuserProfileSvg(design: DiffuserDesign, options: DiffuserProf
 	const X = (mm: number) => margin.left + mm * s;
 	const Y = (mm: number) => margin.top + mm * s;
 	const parts: string[] = [];
-	const title = options.title ?? `${design.kind === 'quadratic-residue' ? 'Quadratic-residue' : 'Primitive-root'} diffuser, N = ${design.prime}, f0 = ${design.designFrequencyHz.toFixed(0)} Hz`;
+	const title = options.title ?? `${design.kind === 'quadratic-residue' ? 'Quadratic-residue' : 'Primitive-root'} diffuser, N = ${design.prime}, f0 = ${formatHz(design.designFrequencyHz)}`;
 	parts.push(rect(0, 0, width, height, `fill="${PALETTE.paper}"`));
 	parts.push(text(margin.left, 20, title, `${DRAWING_FONT} font-size="${fontSize + 1}" fill="${PALETTE.ink}"`));
 	// Back board.

@@ -1,4 +1,5 @@
 // Panel (membrane) bass trap: a limp panel of surface mass m' over a sealed cavity of depth d.
+import { formatHz } from '../format';
 import { AIR_HEAT_CAPACITY_RATIO, checkAir, DEFAULT_AIR, type AirProperties } from './air';
 import { octaveEdgesHz, PLANNING_BANDS_HZ } from './bands';
 
@@ -79,7 +80,7 @@ export function membraneModelWarnings(trap: MembraneTrap, air: AirProperties = D
 	const f0 = membraneResonanceHz(trap, air);
 	const lambda = air.speedOfSound / f0;
 	return trap.cavityDepthM > lambda / 12
-		? [`cavity depth ${(trap.cavityDepthM * 1000).toFixed(0)} mm exceeds λ/12 at ${f0.toFixed(0)} Hz; the resonance estimate is rough`]
+		? [`cavity depth ${(trap.cavityDepthM * 1000).toFixed(0)} mm exceeds λ/12 at ${formatHz(f0)}; the resonance estimate is rough`]
 		: [];
 }
 

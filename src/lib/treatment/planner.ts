@@ -1,4 +1,5 @@
 // From a problem band to treatment proposals, each with the formula that justifies it.
+import { formatHz, formatHzRange } from '../format';
 import { DEFAULT_AIR, type AirProperties } from './air';
 import { geometricCentreHz, PLANNING_BANDS_HZ } from './bands';
 import type { TreatmentItem } from './calibrate';
@@ -72,7 +73,6 @@ export interface TreatmentPlan {
 	notes: string[];
 }
 
-const hz = (f: number) => (f >= 1000 ? `${(f / 1000).toFixed(f % 1000 === 0 ? 0 : 1)} kHz` : `${f.toFixed(0)} Hz`);
 
 export function bandRegion(band: ProblemBand): BandRegion {
 	if (geometricCentreHz(band.fLoHz, band.fHiHz) < LOW_REGION_CENTRE_HZ) return 'low';
@@ -104,7 +104,7 @@ export function proposeMembraneTrap(band: ProblemBand, air: AirProperties = DEFA
 	let chosen = candidates.find((c) => c.depthMm >= MEMBRANE_DEPTH_RANGE_MM.min && c.depthMm <= MEMBRANE_DEPTH_RANGE_MM.max);
 	if (!chosen) {
 		chosen = target < 100 ? candidates[candidates.length - 1] : candidates[0];
-		warnings.push(`no standard panel gives a cavity of ${MEMBRANE_DEPTH_RANGE_MM.min}–${MEMBRANE_DEPTH_RANGE_MM.max} mm at ${hz(target)}; the cavity is ${chosen.depthMm} mm`);
+		warnings.push(`no standard panel gives a cavity of ${MEMBRANE_DEPTH_RANGE_MM.min}–${MEMBRANE_DEPTH_RANGE_MM.max} mm at ${formatHz(target)}; the cavity is ${chosen.depthMm} mm`);
 	}
 	const trap: MembraneTrap = { surfaceMassKgM2: chosen.mass, cavityDepthM: chosen.depthMm / 1000, cavityFill: 'porous' };
 	const f0 = membraneResonanceHz(trap, air);
@@ -112,12 +112,12 @@ export function proposeMembraneTrap(band: ProblemBand, air: AirProperties = DEFA
 	const range = membraneActionRangeHz(f0);
 	const coversBand = covers(range, band);
 	if (!coversBand) {
-		warnings.push(`the trap acts on ${hz(range.loHz)}–${hz(range.hiHz)}, not the whole ${hz(band.fLoHz)}–${hz(band.fHiHz)}; add a second trap tuned to the uncovered part`);
+		warnings.push(`the trap acts on ${formatHzRange(range.loHz, range.hiHz)}, not the whole ${formatHzRange(band.fLoHz, band.fHiHz)}; add a second trap tuned to the uncovered part`);
 	}
 	return {
 		kind: 'membrane-trap',
 		title: `Panel trap, ${chosen.t} mm plywood over a ${chosen.depthMm} mm fibre-filled cavity`,
-		why: `A ${chosen.t} mm plywood panel (m′ = ${chosen.mass.toFixed(1)} kg/m²) on a ${chosen.depthMm} mm cavity filled with fibre resonates at f0 = (1/2π)·√(ρ0c0²/(γ·m′·d)) ≈ ${f0.toFixed(0)} Hz and absorbs about an octave around it, ${hz(range.loHz)}–${hz(range.hiHz)}.`,
+		why: `A ${chosen.t} mm plywood panel (m′ = ${chosen.mass.toFixed(1)} kg/m²) on a ${chosen.depthMm} mm cavity filled with fibre resonates at f0 = (1/2π)·√(ρ0c0²/(γ·m′·d)) ≈ ${formatHz(f0)} and absorbs about an octave around it, ${formatHzRange(range.loHz, range.hiHz)}.`,
 		actionRangeHz: range,
 		coversBand,
 		coefficients: membraneBandAbsorption(trap, air),
@@ -169,7 +169,7 @@ export function proposePorousAbsorber(band: ProblemBand, options: PlannerOptions
 	return {
 		kind: 'porous-absorber',
 		title: `Porous absorber, ${tMm} mm fibre ${mount}`,
-		why: `A ${tMm} mm layer of fibre (σ = ${(sigma / 1000).toFixed(0)} kPa·s/m²) ${mount} absorbs α ≈ ${alpha.toFixed(2)} at ${hz(band.fLoHz)} and more above it (Miki's model, layer and gap by the transfer matrix, random incidence by Paris' formula).`,
+		why: `A ${tMm} mm layer of fibre (σ = ${(sigma / 1000).toFixed(0)} kPa·s/m²) ${mount} absorbs α ≈ ${alpha.toFixed(2)} at ${formatHz(band.fLoHz)} and more above it (Miki's model, layer and gap by the transfer matrix, random incidence by Paris' formula).`,
 		actionRangeHz: range,
 		coversBand: covers(range, band),
 		coefficients: bands.coefficients,
@@ -201,7 +201,7 @@ export function proposeDiffuser(band: ProblemBand, options: PlannerOptions = {})
 	return {
 		kind: 'diffuser',
 		title: `Quadratic-residue diffuser, N = ${prime}, ${(wellWidthM * 1000).toFixed(0)} mm wells`,
-		why: `A quadratic-residue diffuser (wells s_n = n² mod ${prime}, depths s_n·λ0/(2N)) designed at ${hz(diffuser.designFrequencyHz)} with ${(wellWidthM * 1000).toFixed(0)} mm wells scatters from f0 up to c/(2w) = ${hz(range.hiHz)}, breaking up the reflection instead of deadening the room.`,
+		why: `A quadratic-residue diffuser (wells s_n = n² mod ${prime}, depths s_n·λ0/(2N)) designed at ${formatHz(diffuser.designFrequencyHz)} with ${(wellWidthM * 1000).toFixed(0)} mm wells scatters from f0 up to c/(2w) = ${formatHz(range.hiHz)}, breaking up the reflection instead of deadening the room.`,
 		actionRangeHz: range,
 		coversBand: covers(range, band),
 		coefficients: PLANNING_BANDS_HZ.map(() => DIFFUSER_ABSORPTION_ESTIMATE),
@@ -220,10 +220,10 @@ export function planTreatment(band: ProblemBand, options: PlannerOptions = {}): 
 	if (region === 'low') {
 		proposals.push(proposeMembraneTrap(band, options.air));
 		if (porous) proposals.push(porous);
-		else notes.push(`no porous absorber up to ${Math.max(...POROUS_THICKNESSES_MM) + Math.max(...POROUS_GAPS_MM)} mm deep reaches α ${POROUS_TARGET_ALPHA} at ${hz(band.fLoHz)}; a panel trap is the practical choice`);
+		else notes.push(`no porous absorber up to ${Math.max(...POROUS_THICKNESSES_MM) + Math.max(...POROUS_GAPS_MM)} mm deep reaches α ${POROUS_TARGET_ALPHA} at ${formatHz(band.fLoHz)}; a panel trap is the practical choice`);
 	} else if (region === 'mid') {
 		if (porous) proposals.push(porous);
-		else notes.push(`no porous absorber in the searched sizes reaches α ${POROUS_TARGET_ALPHA} at ${hz(band.fLoHz)}`);
+		else notes.push(`no porous absorber in the searched sizes reaches α ${POROUS_TARGET_ALPHA} at ${formatHz(band.fLoHz)}`);
 	} else {
 		proposals.push(proposeDiffuser(band, options));
 		if (porous) proposals.push(porous);

@@ -1,8 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import {
-	bandName,
 	dbTickStep,
-	frequencyLabel,
 	linearTicks,
 	niceStep,
 	octaveLabelStride,
@@ -26,34 +24,6 @@ describe('octaveTicks', () => {
 	it('rejects an empty or negative range', () => {
 		expect(() => octaveTicks(0, 100)).toThrow(RangeError);
 		expect(() => octaveTicks(100, 100)).toThrow(RangeError);
-	});
-});
-
-describe('frequencyLabel and bandName', () => {
-	const labels = [
-		[31.5, '31.5', '31.5 Hz'],
-		[63, '63', '63 Hz'],
-		[125, '125', '125 Hz'],
-		[1000, '1k', '1 kHz'],
-		[1250, '1.25k', '1.25 kHz'],
-		[2500, '2.5k', '2.5 kHz'],
-		[3150, '3.15k', '3.15 kHz'],
-		[12500, '12.5k', '12.5 kHz'],
-		[16000, '16k', '16 kHz'],
-		[1234.5, '1.23k', '1.23 kHz'], // three significant figures
-		[999.7, '1k', '1 kHz'] // rounds up into the next unit
-	] as const;
-	it.each(labels)('%d Hz → "%s" / "%s"', (hz, short, long) => {
-		expect(frequencyLabel(hz)).toBe(short);
-		expect(bandName(hz)).toBe(long);
-	});
-
-	it('names the broadband curve', () => {
-		expect(bandName('broadband')).toBe('Broadband');
-	});
-
-	it('rejects what is not a frequency', () => {
-		for (const bad of [0, -63, Number.NaN]) expect(() => frequencyLabel(bad)).toThrow(RangeError);
 	});
 });
 

@@ -136,7 +136,7 @@ describe('calibration to a measured baseline', () => {
 		const partial = [null, ...measured.slice(1, 7), null];
 		const e = evaluatePlan(input({ measuredBeforeS: partial }));
 		expect(e.calibration).toBe('partly measured');
-		expect(e.warnings.find((w) => /bands without a measurement/.test(w))).toMatch(/63 Hz, 8000 Hz/);
+		expect(e.warnings.find((w) => /bands without a measurement/.test(w))).toMatch(/63 Hz, 8 kHz/);
 		for (const i of [0, 7]) {
 			expect(e.bands[i].calibrated).toBe(false);
 			expect(e.bands[i].residualM2).toBeNull();

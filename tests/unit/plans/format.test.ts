@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { areaText, hzText, KG_PER_LB, lengthInput, lengthText, M2_PER_FT2, moneyText, roomLengthText, signedText, sizeText, weightText } from '../../../src/lib/plans/format';
+import { areaText, KG_PER_LB, lengthInput, lengthText, M2_PER_FT2, moneyText, roomLengthText, sizeText, weightText } from '../../../src/lib/plans/format';
 import { parseLength } from '../../../src/lib/treatment/units';
 
 // International yard and pound agreement (1959): 1 in = 25.4 mm, 1 ft = 0.3048 m, 1 lb = 0.45359237 kg, exactly.
@@ -85,7 +85,7 @@ describe('areas and weights', () => {
 	});
 });
 
-describe('money and frequencies', () => {
+describe('money', () => {
 	it('money in the plan’s currency, two decimals', () => {
 		expect(moneyText(1234.5, 'EUR')).toBe('€1,234.50');
 		expect(moneyText(12, 'USD')).toBe('$12.00');
@@ -93,29 +93,5 @@ describe('money and frequencies', () => {
 
 	it('an unknown currency code falls back to the amount and the code', () => {
 		expect(moneyText(12.5, 'EURO')).toBe('12.50 EURO');
-	});
-
-	it.each([
-		[125, '125 Hz'],
-		[50.9, '51 Hz'],
-		[2000, '2 kHz'],
-		[1414.2, '1.4 kHz'],
-		[3430, '3.4 kHz']
-	])('hzText(%f) = %s', (hz, text) => {
-		expect(hzText(hz)).toBe(text);
-	});
-});
-
-describe('signed differences', () => {
-	it.each([
-		[0.02, 2, '+0.02'],
-		[-0.04, 2, '−0.04'],
-		// Rounds to nothing: no sign (a "−0.00" would suggest a direction that is not there).
-		[-0.004, 2, '0.00'],
-		[0.004, 2, '0.00'],
-		[-5.4, 0, '−5'],
-		[0, 0, '0']
-	])('signedText(%f, %i) = %s', (value, decimals, text) => {
-		expect(signedText(value, decimals)).toBe(text);
 	});
 });

@@ -37,8 +37,8 @@ describe('the plan in plain words', () => {
 		const porousRange = e.items[0].actionRangeHz!;
 		expect(porousRange.loHz).toBeLessThan(1000);
 		expect(r.lines[0]).toMatch(/^2 × Side absorbers \(porous absorber, 600 mm × 1200 mm\) on the left wall: absorbs sound, working from \d+ Hz to 11\.3 kHz\.$/);
-		// QRD: from f0 = 500 Hz to c/(2w) = 3430 Hz, written "3.4 kHz".
-		expect(r.lines[1]).toBe('3 × Rear diffuser (diffuser, 398 mm × 1200 mm) on the back wall: scatters sound, working from 500 Hz to 3.4 kHz.');
+		// QRD: from f0 = 500 Hz to c/(2w) = 3430 Hz, written "3.43 kHz" (three significant figures).
+		expect(r.lines[1]).toBe('3 × Rear diffuser (diffuser, 398 mm × 1200 mm) on the back wall: scatters sound, working from 500 Hz to 3.43 kHz.');
 		// Trap f0 = 50.9 Hz: half an octave either side is 36.0 … 72.0 Hz.
 		expect(r.lines[2]).toBe('1 × Corner trap (panel bass trap, 600 mm × 1200 mm) free-standing: absorbs sound, working from 36 Hz to 72 Hz.');
 	});

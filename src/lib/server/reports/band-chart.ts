@@ -1,7 +1,7 @@
 // Charts (b) and (c): one value per octave band for both visits on a log-frequency axis,
 // optionally with the target tolerance shaded and the target line.
-import { formatNumber } from '../../charts/format';
-import { frequencyLabel, linearTicks, niceStep, paddedRange } from '../../charts/ticks';
+import { linearTicks, niceStep, paddedRange } from '../../charts/ticks';
+import { formatHzAxis, formatNumber } from '../../format';
 import type { TargetBand } from '../../analysis/targets';
 import { clipToPlot, drawChartTitle, drawFrame, drawLegend, drawLine, drawMarkers, drawNoData, plotAreaOf, type ChartBox, type LegendEntry } from './chart-frame';
 import type { ReportPen } from './pen';
@@ -94,7 +94,7 @@ export function drawBandChart(pen: ReportPen, box: ChartBox, input: BandChartInp
 	drawFrame(
 		pen,
 		plot,
-		{ scale: x, title: 'Octave band (Hz)', ticks: centres.map((f, i) => ({ value: f, label: i % labelStride === 0 ? frequencyLabel(f) : '' })) },
+		{ scale: x, title: 'Octave band (Hz)', ticks: centres.map((f, i) => ({ value: f, label: i % labelStride === 0 ? formatHzAxis(f) : '' })) },
 		{
 			scale: y,
 			title: input.yTitle,

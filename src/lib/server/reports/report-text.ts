@@ -1,6 +1,6 @@
 // The report's fixed wording: how the numbers were measured, and the safety cautions.
 import type { ComparisonModel } from '../../results/types';
-import { bandName } from '../../charts/ticks';
+import { formatBand } from '../../format';
 import type { ReportBandRow } from './report-data';
 
 /** Basis named for a target when the report does not say otherwise. */
@@ -13,7 +13,7 @@ function listInWords(items: readonly string[]): string {
 
 function bandSpan(rows: readonly ReportBandRow[]): string {
 	if (rows.length === 0) return '63 Hz to 8 kHz';
-	return `${bandName(rows[0].centerHz)} to ${bandName(rows[rows.length - 1].centerHz)}`;
+	return `${formatBand(rows[0].centerHz)} to ${formatBand(rows[rows.length - 1].centerHz)}`;
 }
 
 /** One paragraph per point of method, stating what this comparison actually rests on. */

@@ -1,7 +1,7 @@
 // Chart (a): the averaged frequency response of both visits on a log-frequency axis, with the
 // consultant's problem bands shaded and numbered as in the problem-band table.
-import { formatNumber } from '../../charts/format';
-import { frequencyLabel, linearTicks, octaveTicks } from '../../charts/ticks';
+import { linearTicks, octaveTicks } from '../../charts/ticks';
+import { formatHzAxis, formatNumber } from '../../format';
 import type { ProblemBandView } from '../../results/types';
 import { clipToPlot, drawChartTitle, drawFrame, drawLegend, drawLine, drawNoData, plotAreaOf, type ChartBox, type LegendEntry } from './chart-frame';
 import type { ReportPen } from './pen';
@@ -66,7 +66,7 @@ export function drawResponseChart(pen: ReportPen, box: ChartBox, input: Response
 	drawFrame(
 		pen,
 		plot,
-		{ scale: x, title: 'Frequency (Hz)', ticks: octaveTicks(...FREQUENCY_DOMAIN).map((f) => ({ value: f, label: frequencyLabel(f) })) },
+		{ scale: x, title: 'Frequency (Hz)', ticks: octaveTicks(...FREQUENCY_DOMAIN).map((f) => ({ value: f, label: formatHzAxis(f) })) },
 		{ scale: y, title: 'Level (dB)', ticks: linearTicks(dbLo, dbHi, DB_GRID).map((v) => ({ value: v, label: formatNumber(v, 0) })) }
 	);
 

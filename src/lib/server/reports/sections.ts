@@ -1,20 +1,20 @@
 // The report's sections, in reading order, each drawn into the flow of the document.
-import { formatNumber } from '../../charts/format';
-import { bandName } from '../../charts/ticks';
+import {
+	capitalise,
+	formatBand,
+	formatDb,
+	formatHzRange,
+	formatMsRange,
+	formatNumber,
+	formatRange,
+	formatSeconds,
+	formatSigned,
+	MISSING
+} from '../../format';
 import type { ComparisonModel, ProblemBandView, SessionSummary } from '../../results/types';
 import { drawBandChart } from './band-chart';
 import { drawBullets, drawFactPanel, drawHeading, drawParagraphs } from './blocks';
-import {
-	capitalise,
-	formatFrequencyRange,
-	formatPublishedDate,
-	formatSigned,
-	formatTargetRange,
-	formatTimeRange,
-	MISSING,
-	splitParagraphs,
-	verdictWords
-} from './format';
+import { formatPublishedDate, splitParagraphs, verdictWords } from './wording';
 import type { ReportPen } from './pen';
 import { reportBandRows, smoothedResponse, usesT20Fallback, type ReportBandRow, type ReverberationValue } from './report-data';
 import { methodParagraphs, SAFETY_PARAGRAPHS } from './report-text';
@@ -157,7 +157,7 @@ export function drawCharts(pen: ReportPen, report: ReportContent, rows: readonly
 }
 
 function reverberationCell(value: ReverberationValue): string {
-	const text = formatNumber(value.valueS, 2);
+	const text = formatSeconds(value.valueS);
 	return value.metric === 'T20' ? `${text}*` : text;
 }
 
@@ -176,15 +176,15 @@ const BAND_COLUMNS: Record<string, TableColumn> = {
 /** The band table's cells, keyed like BAND_COLUMNS. */
 function bandCells(row: ReportBandRow): Record<keyof typeof BAND_COLUMNS, string> {
 	return {
-		band: bandName(row.centerHz),
+		band: formatBand(row.centerHz),
 		before: reverberationCell(row.before),
 		after: reverberationCell(row.after),
 		change: formatSigned(row.differenceS, 2),
 		changePct: formatSigned(row.relativeChange === null ? null : row.relativeChange * 100, 0),
-		target: row.target ? formatTargetRange(row.target.lowerS, row.target.upperS) : MISSING,
+		target: row.target ? formatRange(row.target.lowerS, row.target.upperS, formatSeconds) : MISSING,
 		verdict: row.target ? verdictWords(row.verdictAfter) : MISSING,
-		c80Before: formatNumber(row.c80BeforeDb, 1),
-		c80After: formatNumber(row.c80AfterDb, 1)
+		c80Before: formatDb(row.c80BeforeDb),
+		c80After: formatDb(row.c80AfterDb)
 	};
 }
 
@@ -230,8 +230,8 @@ export function drawProblemBands(pen: ReportPen, problemBands: readonly ProblemB
 		],
 		problemBands.map((band, index) => [
 			String(index + 1),
-			formatFrequencyRange(band.fLoHz, band.fHiHz),
-			formatTimeRange(band.tLoMs, band.tHiMs),
+			formatHzRange(band.fLoHz, band.fHiHz),
+			formatMsRange(band.tLoMs, band.tHiMs),
 			capitalise(band.severity),
 			band.note.trim().length > 0 ? band.note : MISSING,
 			capitalise(band.status)
@@ -272,11 +272,11 @@ export function drawPlan(pen: ReportPen, plan: ReportPlan): void {
 			pen,
 			columns,
 			bands.map((b) => [
-				bandName(b.bandHz),
-				formatNumber(b.measuredBeforeS, 2),
-				formatNumber(b.predictedS, 2),
-				b.target ? formatTargetRange(b.target.lowerS, b.target.upperS) : MISSING,
-				...(measuredAfter ? [formatNumber(b.measuredAfterS, 2), formatSigned(b.differenceS, 2)] : [])
+				formatBand(b.bandHz),
+				formatSeconds(b.measuredBeforeS),
+				formatSeconds(b.predictedS),
+				b.target ? formatRange(b.target.lowerS, b.target.upperS, formatSeconds) : MISSING,
+				...(measuredAfter ? [formatSeconds(b.measuredAfterS), formatSigned(b.differenceS, 2)] : [])
 			])
 		);
 	}
