@@ -1,6 +1,7 @@
 // The visit's captures, kept fresh while any is still uploading, queued or being analysed:
 // polling with back-off (0.5 s doubling to 5 s), reset whenever something changes.
-import type { CaptureView } from '$lib/server/captures/views';
+import type { CaptureView } from '$lib/types/captures';
+import { isPendingStatus } from '$lib/captures/status';
 import { apiFetch } from './api';
 
 const FIRST_DELAY_MS = 500;
@@ -57,5 +58,5 @@ export class LiveCaptures {
 }
 
 export function isPending(c: CaptureView): boolean {
-	return c.status === 'awaiting_upload' || c.status === 'queued' || c.status === 'analysing';
+	return isPendingStatus(c.status);
 }

@@ -1,26 +1,10 @@
 // The JSON shape of a capture for the browser: its state, and — once analysed — the headline
 // numbers and quality warnings. Object keys stay on the server.
 import type { Knex } from 'knex';
+import type { CaptureView } from '../../types/captures';
 import { analysisSummaries, listCaptures, type CaptureRow } from '../queries/captures';
 
-export interface CaptureView {
-	id: number;
-	positionId: number;
-	positionLabel: string;
-	kind: 'impulse' | 'sweep';
-	filename: string;
-	sizeBytes: number | null;
-	sampleRate: number | null;
-	channels: number | null;
-	channel: number;
-	durationS: number | null;
-	status: CaptureRow['status'];
-	error: string | null;
-	engineVersion: string | null;
-	warnings: { code: string; band: number | null; message: string }[];
-	headline: { t30S: number | null; t20S: number | null; edtS: number | null; c80Db: number | null; peakToNoiseDb: number | null } | null;
-	updatedAt: string;
-}
+export type { CaptureView };
 
 export function toView(c: CaptureRow, summary?: { engineVersion: string; warnings: unknown[]; metrics: Record<string, unknown> }): CaptureView {
 	const broadband = summary?.metrics.broadband as Record<string, number | null> | undefined;

@@ -2,9 +2,9 @@ import { json } from '@sveltejs/kit';
 import { authorize } from '$lib/server/auth/access';
 import { answer, parseJsonBody } from '$lib/server/api';
 import { createCapture } from '$lib/server/captures/service';
-import { sessionCaptureViews, toView } from '$lib/server/captures/views';
+import { sessionCaptures } from '$lib/server/captures/read';
+import { toView } from '$lib/server/captures/views';
 import { config } from '$lib/server/config';
-import { db } from '$lib/server/db';
 import { createCaptureSchema } from '$lib/schemas/captures';
 import type { RequestHandler } from './$types';
 
@@ -12,9 +12,7 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = async ({ locals, params }) => {
 	const sessionId = Number(params.sessionId);
 	await authorize(locals, 'project:internal', { sessionId });
-	const captures = await sessionCaptureViews(db(), sessionId);
-	const pending = captures.filter((c) => ['awaiting_upload', 'queued', 'analysing'].includes(c.status)).length;
-	return json({ captures, pending });
+	return json(await sessionCaptures(sessionId));
 };
 
 /** Announce a file: validates the metadata, creates the capture and returns presigned upload URL(s). */
