@@ -101,6 +101,15 @@ describe('plainSummary: band sentences', () => {
 		expect(model.summary).toContain(`At 500 Hz the reverberation time (T30) ${text}.`);
 	});
 
+	it('takes T_mid band by band: T30, else T20, and names both when both were used', () => {
+		const before = visit(['P1'], [{ centerHz: 500, t30S: null, t20S: 0.7 }, { centerHz: 1000, t30S: 0.5 }]);
+		const after = visit(['P1'], [{ centerHz: 500, t30S: 0.4 }, { centerHz: 1000, t30S: 0.4 }]);
+		// Before (0.70 + 0.50) / 2 = 0.60 s, after 0.40 s: −33 %.
+		expect(compareSessions(otherRoom, before, after).summary[0]).toBe(
+			'In the middle frequencies (500 Hz and 1 kHz) the reverberation time (T30, and T20 where T30 could not be measured reliably) fell by 33 %, from 0.60 s to 0.40 s.'
+		);
+	});
+
 	it('says where T20 stood in for T30', () => {
 		const model = compareSessions(otherRoom, visit(['P1'], [{ centerHz: 125, t30S: null, t20S: 0.92 }]), visit(['P1'], [{ centerHz: 125, t30S: 0.48 }]), { target: [band(125, 0.4, 0.55)] });
 		expect(model.summary).toContain(
