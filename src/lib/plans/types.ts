@@ -1,9 +1,16 @@
 // The shapes of a room's treatment plan as stored and as the pages use them. Lengths of built
 // things are millimetres; room geometry is metres (as the room itself).
-import type { CavityFill } from '../treatment/membrane';
-import type { DiffuserKind } from '../treatment/diffuser';
+import type { z } from 'zod';
+import type {
+	diffuserParamsSchema,
+	ItemFormData,
+	membraneParamsSchema,
+	openingFormSchema,
+	planSettingsSchema,
+	porousParamsSchema,
+	stockFormSchema
+} from '../schemas/treatment';
 import type { Material } from '../treatment/materials';
-import type { PorousModel } from '../treatment/porous';
 import type { SurfaceId } from '../treatment/surfaces';
 
 export const ITEM_KINDS = ['porous', 'membrane', 'diffuser'] as const;
@@ -24,99 +31,38 @@ export const SURFACE_LABELS: Record<SurfaceId, string> = {
 	right: 'Right wall'
 };
 
-/** Fibre layer with an optional air gap, in a timber frame. */
-export interface PorousParams {
-	kind: 'porous';
-	thicknessMm: number;
-	airGapMm: number;
-	/** Air-flow resistivity σ, Pa·s/m². */
-	flowResistivity: number;
-	/** The preset σ came from, if any (for the label). */
-	presetId: string | null;
-	/** Empirical model of the fibre: Miki (default; stays physical outside the fitted range) or Delany–Bazley. */
-	model: PorousModel;
-	frameThicknessMm: number;
-	fabricWrapped: boolean;
-	withBack: boolean;
-}
+// The stored shapes are what their zod schemas (src/lib/schemas/treatment.ts) give, so the
+// checks on write and read and the types cannot drift apart.
 
-/** Limp panel over a sealed cavity. */
-export interface MembraneParams {
-	kind: 'membrane';
-	panelThicknessMm: number;
-	/** Panel stock (plywood, MDF, hardboard): its density gives the surface mass. */
-	panelStockId: string;
-	cavityDepthMm: number;
-	cavityFill: CavityFill;
-	frameThicknessMm: number;
-}
+/** Fibre layer with an optional air gap, in a timber frame; flow resistivity σ in Pa·s/m². */
+export type PorousParams = z.output<typeof porousParamsSchema>;
+
+/** Limp panel over a sealed cavity; its stock's density gives the surface mass. */
+export type MembraneParams = z.output<typeof membraneParamsSchema>;
 
 /** One-dimensional Schroeder diffuser; the panel width follows from the design. */
-export interface DiffuserParams {
-	kind: 'diffuser';
-	sequence: DiffuserKind;
-	prime: number;
-	designFrequencyHz: number;
-	wellWidthMm: number;
-	finThicknessMm: number;
-	maxDepthMm: number | null;
-	boardThicknessMm: number;
-}
+export type DiffuserParams = z.output<typeof diffuserParamsSchema>;
 
 export type ItemParams = PorousParams | MembraneParams | DiffuserParams;
 
-export interface PlanItem {
-	id: number;
-	label: string;
-	/** The surface it is mounted on (its finish stops absorbing behind it), or null when free-standing. */
-	surface: SurfaceId | null;
-	quantity: number;
-	/** Face size of one unit, mm. For a diffuser the width is the design's panel width. */
-	widthMm: number;
-	heightMm: number;
-	params: ItemParams;
-	/** Price of one unit's bought materials (fibre, fabric, fixings), in the plan's currency. */
-	unitPrice: number | null;
-	problemBandId: number | null;
-	/** Why it is in the plan (the planner's sentence, or the consultant's). */
-	why: string | null;
-}
+/**
+ * A planned item: what the item form gives (face size of one unit in mm — for a diffuser the
+ * design's panel width —, price of one unit's bought materials, the problem band it answers and
+ * why it is there) with its stored parameters.
+ */
+export type PlanItem = { id: number } & Omit<ItemFormData, 'params'> & { params: ItemParams };
 
 /** A material as the plan refers to it: built-in by id, or the organization's own as "custom-<id>". */
 export type MaterialKey = string;
 
-export interface PlanOpening {
-	id: number;
-	label: string;
-	surface: SurfaceId;
-	widthM: number;
-	heightM: number;
-	materialKey: MaterialKey;
-}
+/** A door or window in a surface, metres; its finish by material key. */
+export type PlanOpening = { id: number } & z.output<ReturnType<typeof openingFormSchema>>;
 
-export interface StockSheetRow {
-	id: number;
-	label: string;
-	lengthMm: number;
-	widthMm: number;
-	thicknessMm: number;
-	finishedFaces: 0 | 1 | 2;
-	grain: 'along-length' | 'none';
-	/** Price of one sheet, in the plan's currency. */
-	price: number | null;
-}
+/** A sheet size the cut list may use, mm; its price per sheet in the plan's currency. */
+export type StockSheetRow = { id: number } & z.output<ReturnType<typeof stockFormSchema>>;
 
-export interface PlanSettings {
-	baselineSessionId: number | null;
-	afterSessionId: number | null;
-	temperatureC: number;
-	relativeHumidityPct: number;
-	kerfMm: number;
-	currency: string;
-	/** Fasteners, adhesive, hanging hardware: free text, not a catalogue. */
-	notes: string;
-	includeInReport: boolean;
-}
+/** Which visits the prediction rests on, the air, the saw kerf, currency and notes. */
+export type PlanSettings = z.output<ReturnType<typeof planSettingsSchema>>;
 
 export const DEFAULT_PLAN_SETTINGS: PlanSettings = {
 	baselineSessionId: null,
