@@ -1,28 +1,15 @@
 // The client report as a PDF: a before/after comparison of a room, drawn on the server with
 // pdfkit (vector charts, embedded mono font for numbers), A4, numbered pages.
 import PDFDocument from 'pdfkit';
-import type { ComparisonModel, ProblemBandView } from '../../results/types';
+import type { ReportDocument } from './document';
 import { registerReportFonts } from './fonts';
 import { stampFooters } from './footer';
 import { ReportPen } from './pen';
 import { DEFAULT_TARGET_BASIS } from './report-text';
-import { drawReport, type ReportPlan } from './sections';
+import { drawReport } from './sections';
 import { PAGE } from './theme';
 
-export interface ReportDocument {
-	practiceName: string;
-	projectName: string;
-	clientName: string;
-	publishedAt: Date;
-	title: string;
-	comparison: ComparisonModel;
-	/** The consultant's text, paragraphs separated by blank lines. */
-	advice: string;
-	problemBands: ProblemBandView[];
-	plan?: ReportPlan | null;
-	/** Where the target comes from, named in the method (default ITU-R BS.1116-3). */
-	targetBasis?: string;
-}
+export type { ReportDocument };
 
 export class ReportInputError extends Error {
 	constructor(message: string) {

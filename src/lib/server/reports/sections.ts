@@ -11,7 +11,8 @@ import {
 	formatSigned,
 	MISSING
 } from '../../format';
-import type { ComparisonModel, ProblemBandView, SessionSummary } from '../../results/types';
+import type { ProblemBandView, SessionSummary } from '../../results/types';
+import type { ReportContent, ReportPlan } from './document';
 import { drawBandChart } from './band-chart';
 import { drawBullets, drawFactPanel, drawHeading, drawParagraphs } from './blocks';
 import { formatPublishedDate, splitParagraphs, verdictWords } from './wording';
@@ -22,27 +23,7 @@ import { drawResponseChart } from './response-chart';
 import { drawTable, type TableColumn } from './table';
 import { COLOURS, TYPE } from './theme';
 
-export interface ReportContent {
-	practiceName: string;
-	projectName: string;
-	clientName: string;
-	publishedAt: Date;
-	title: string;
-	comparison: ComparisonModel;
-	advice: string;
-	problemBands: ProblemBandView[];
-	plan: ReportPlan | null;
-	targetBasis: string;
-}
-
-/** A plan in the report: what is planned, and optionally the predicted times per band. */
-export interface ReportPlan {
-	title: string;
-	lines: string[];
-	bands?: { bandHz: number; measuredBeforeS: number | null; predictedS: number | null; target: { lowerS: number; upperS: number } | null; measuredAfterS: number | null; differenceS: number | null }[];
-	method?: string;
-	cost?: string | null;
-}
+export type { ReportContent, ReportPlan };
 
 const RESPONSE_CHART_HEIGHT = 200;
 const BAND_CHART_HEIGHT = 178;
