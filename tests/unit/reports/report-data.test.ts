@@ -50,8 +50,8 @@ describe('reportBandRows', () => {
 	it('takes T30, falls back to T20 per side, and leaves a band with neither empty', () => {
 		const table: [number, [number | null, string | null], [number | null, string | null]][] = [
 			[63, [null, null], [null, null]],
-			[125, [0.7, 'T20'], [0.33, 'T30']], // ISO 3382-2:2008: T20 where the decay range does not reach −35 dB
-			[250, [0.56, 'T30'], [0.24, 'T30']]
+			[125, [0.7, 't20S'], [0.33, 't30S']], // ISO 3382-2:2008: T20 where the decay range does not reach −35 dB
+			[250, [0.56, 't30S'], [0.24, 't30S']]
 		];
 		for (const [centerHz, before, after] of table) {
 			const row = rows.find((r) => r.centerHz === centerHz);

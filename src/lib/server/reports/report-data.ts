@@ -3,15 +3,10 @@
 import type { BandDifference, MetricDifference } from '../../analysis/compare';
 import type { BandVerdict, TargetBand } from '../../analysis/targets';
 import { sameBand } from '../../analysis/targets';
-import type { ComparisonModel, SessionSummary } from '../../results/types';
+import { reverberationFrom } from '../../results/reverberation';
+import type { ComparisonModel, ReverberationValue, SessionSummary } from '../../results/types';
 
-export type DecayMetricName = 'T30' | 'T20';
-
-export interface ReverberationValue {
-	valueS: number | null;
-	/** Which decay range the value comes from; null without a value. */
-	metric: DecayMetricName | null;
-}
+export type { ReverberationValue };
 
 export interface ReportBandRow {
 	centerHz: number;
@@ -41,14 +36,6 @@ function metricOf(band: BandDifference, name: string): MetricDifference | undefi
 	return band.metrics[name];
 }
 
-/** T30 where the band has one, else T20 (ISO 3382-2:2008 allows either evaluation range). */
-function reverberation(t30: number | null | undefined, t20: number | null | undefined): ReverberationValue {
-	const t30S = finiteOrNull(t30);
-	if (t30S !== null) return { valueS: t30S, metric: 'T30' };
-	const t20S = finiteOrNull(t20);
-	return t20S !== null ? { valueS: t20S, metric: 'T20' } : { valueS: null, metric: null };
-}
-
 /** One row per compared band, low to high, with the target and the after-verdict when set. */
 export function reportBandRows(comparison: ComparisonModel): ReportBandRow[] {
 	return [...comparison.differences]
@@ -57,8 +44,8 @@ export function reportBandRows(comparison: ComparisonModel): ReportBandRow[] {
 			const t30 = metricOf(band, 't30S');
 			const t20 = metricOf(band, 't20S');
 			const c80 = metricOf(band, 'c80Db');
-			const before = reverberation(t30?.before, t20?.before);
-			const after = reverberation(t30?.after, t20?.after);
+			const before = reverberationFrom(t30?.before, t20?.before);
+			const after = reverberationFrom(t30?.after, t20?.after);
 			const differenceS = before.valueS !== null && after.valueS !== null ? after.valueS - before.valueS : null;
 			const relativeChange = differenceS !== null && before.valueS !== 0 ? differenceS / (before.valueS as number) : null;
 			const target = comparison.target.find((t) => sameBand(t.centerHz, band.centerHz)) ?? null;
@@ -88,5 +75,5 @@ export function smoothedResponse(session: SessionSummary): ResponseCurve | null 
 
 /** Whether any row uses T20 in place of T30 (the table then says so). */
 export function usesT20Fallback(rows: readonly ReportBandRow[]): boolean {
-	return rows.some((row) => row.before.metric === 'T20' || row.after.metric === 'T20');
+	return rows.some((row) => row.before.metric === 't20S' || row.after.metric === 't20S');
 }

@@ -139,7 +139,7 @@ export function drawCharts(pen: ReportPen, report: ReportContent, rows: readonly
 
 function reverberationCell(value: ReverberationValue): string {
 	const text = formatSeconds(value.valueS);
-	return value.metric === 'T20' ? `${text}*` : text;
+	return value.metric === 't20S' ? `${text}*` : text;
 }
 
 const BAND_COLUMNS: Record<string, TableColumn> = {
