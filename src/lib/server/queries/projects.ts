@@ -1,17 +1,9 @@
 import type { Knex } from 'knex';
+import type { ProjectRow } from '../../types/projects';
 import type { Membership } from '../auth/access';
 import { roleNeedsProjectMembership } from '../../roles';
 
-export interface ProjectRow {
-	id: number;
-	organizationId: number;
-	organizationName: string;
-	name: string;
-	clientName: string;
-	description: string | null;
-	roomCount: number;
-	updatedAt: Date;
-}
+export type { ProjectRow };
 
 const projectColumns = {
 	id: 'p.id',

@@ -1,18 +1,7 @@
 import type { Knex } from 'knex';
+import type { RoomRow } from '../../types/rooms';
 
-export interface RoomRow {
-	id: number;
-	projectId: number;
-	name: string;
-	lengthM: number;
-	widthM: number;
-	heightM: number;
-	volumeM3: number;
-	roomUse: string;
-	notes: string | null;
-	sessionCount: number;
-	updatedAt: Date;
-}
+export type { RoomRow };
 
 const roomColumns = {
 	id: 'r.id',

@@ -1,16 +1,7 @@
 import type { Knex } from 'knex';
+import type { SessionRow } from '../../types/sessions';
 
-export interface SessionRow {
-	id: number;
-	roomId: number;
-	conditionLabel: string;
-	measuredOn: string;
-	notes: string | null;
-	acousticianId: number | null;
-	acousticianName: string | null;
-	positionCount: number;
-	captureCount: number;
-}
+export type { SessionRow };
 
 const columns = {
 	id: 's.id',
