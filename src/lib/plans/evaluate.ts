@@ -3,8 +3,7 @@
 // read, the target, and — once the room has been measured again — predicted against measured.
 import { formatHz } from '../format';
 import type { TargetBand } from '../analysis/targets';
-import { DEFAULT_AIR } from '../treatment/air';
-import type { AtmosphereConditions } from '../treatment/airAbsorption';
+import { DEFAULT_AIR, type AtmosphereConditions } from '../treatment/air';
 import { PLANNING_BANDS_HZ } from '../treatment/bands';
 import { calibrate, checkAgainstTarget, predictWithTreatment, type BandPrediction, type Calibration, type CalibrationPatch, type TargetVerdict, type TreatmentItem } from '../treatment/calibrate';
 import { materialBandCoefficients, type Material } from '../treatment/materials';

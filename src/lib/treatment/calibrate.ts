@@ -3,8 +3,7 @@
 // The assumed finishes never explain a real room exactly (furniture, leaks, panel resonances),
 // so the measured T per band fixes a residual absorption: the extra equivalent area that makes
 // the chosen formula reproduce the measurement. Treatment is then added to the calibrated room.
-import { DEFAULT_SPEED_OF_SOUND } from './air';
-import type { AtmosphereConditions } from './airAbsorption';
+import { DEFAULT_SPEED_OF_SOUND, type AtmosphereConditions } from './air';
 import { checkBandValues, PLANNING_BANDS_HZ, type BandValues } from './bands';
 import { absorptionForTime, airAttenuationPerBand, MAX_LOG_ALPHA, timeFromAbsorption, type ReverbFormula } from './reverb';
 import type { SurfaceId } from './surfaces';

@@ -2,7 +2,6 @@
 import { formatHz, formatHzRange } from '../format';
 import { DEFAULT_AIR, type AirProperties } from './air';
 import { geometricCentreHz, PLANNING_BANDS_HZ } from './bands';
-import type { TreatmentItem } from './calibrate';
 import { designDiffuser, isPrime, type DiffuserDesign } from './diffuser';
 import {
 	cavityDepthForResonance,
@@ -15,7 +14,6 @@ import {
 	type MembraneTrap
 } from './membrane';
 import { porousBandAbsorption, randomIncidenceAbsorption, type PorousLayer } from './porous';
-import type { SurfaceId } from './surfaces';
 
 export interface ProblemBand {
 	fLoHz: number;
@@ -229,9 +227,4 @@ export function planTreatment(band: ProblemBand, options: PlannerOptions = {}): 
 		if (porous) proposals.push(porous);
 	}
 	return { band, region, proposals, notes };
-}
-
-/** A treatment item for the reverberation prediction from a proposal and the face area to install. */
-export function treatmentItemFromProposal(proposal: Proposal, areaM2: number, coversSurface?: SurfaceId): TreatmentItem {
-	return { label: proposal.title, areaM2, coefficients: proposal.coefficients, covers: coversSurface };
 }

@@ -1,7 +1,6 @@
 // Predicted reverberation time from absorption: Sabine, Eyring and Millington
 // (Kuttruff, Room Acoustics, chapter on the reverberation formulas).
-import { DEFAULT_SPEED_OF_SOUND } from './air';
-import { airIntensityAttenuationPerM, type AtmosphereConditions } from './airAbsorption';
+import { airIntensityAttenuationPerM, DEFAULT_SPEED_OF_SOUND, type AtmosphereConditions } from './air';
 import { PLANNING_BANDS_HZ } from './bands';
 
 /** 24·ln 10 — the time for a 60 dB energy decay expressed through A and V. */

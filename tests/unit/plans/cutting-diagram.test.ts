@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { cuttingDiagramSvg } from '../../../src/lib/treatment/cuttingDiagramSvg';
+import { cuttingDiagramSvg } from '../../../src/lib/treatment/cutting-diagram-svg';
 import type { Part } from '../../../src/lib/treatment/parts';
 import type { Placement, SheetLayout } from '../../../src/lib/treatment/cutlist';
 

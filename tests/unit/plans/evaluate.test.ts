@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { bs1116Target } from '../../../src/lib/analysis/targets';
 import { evaluatePlan, type PlanInput } from '../../../src/lib/plans/evaluate';
-import { airIntensityAttenuationPerM } from '../../../src/lib/treatment/airAbsorption';
+import { airIntensityAttenuationPerM } from '../../../src/lib/treatment/air';
 import { PLANNING_BANDS_HZ } from '../../../src/lib/treatment/bands';
 import { DIFFUSER_ABSORPTION_ESTIMATE } from '../../../src/lib/treatment/planner';
 import { porousBandAbsorption } from '../../../src/lib/treatment/porous';

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { diffuserBuildSheet } from '../../../src/lib/treatment/buildsheet';
 import { cutList, type CutList, type StockSheet } from '../../../src/lib/treatment/cutlist';
-import { cuttingDiagramSvg } from '../../../src/lib/treatment/cuttingDiagramSvg';
+import { cuttingDiagramSvg } from '../../../src/lib/treatment/cutting-diagram-svg';
 import { designDiffuser } from '../../../src/lib/treatment/diffuser';
 import type { FinishedFaces, Grain, Part } from '../../../src/lib/treatment/parts';
 import { expectValidLayout } from './helpers/layout';

@@ -7,7 +7,7 @@ import {
 	quadraticResidueSequence,
 	smallestPrimitiveRoot
 } from '../../../src/lib/treatment/diffuser';
-import { diffuserProfileSvg } from '../../../src/lib/treatment/diffuserSvg';
+import { diffuserProfileSvg } from '../../../src/lib/treatment/diffuser-svg';
 
 describe('quadratic-residue example worked from the design formulas (Schroeder JASA 65:958, 1979; D’Antonio & Konnert JAES 32:228, 1984)', () => {
 	const design = designDiffuser({ kind: 'quadratic-residue', prime: 7, designFrequencyHz: 500, wellWidthM: 0.05, finThicknessM: 0.01, speedOfSound: 343 });

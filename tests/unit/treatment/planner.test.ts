@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { PLANNING_BANDS_HZ } from '../../../src/lib/treatment/bands';
 import { calibrate, predictWithTreatment } from '../../../src/lib/treatment/calibrate';
 import { randomIncidenceAbsorption } from '../../../src/lib/treatment/porous';
-import { bandRegion, planTreatment, POROUS_TARGET_ALPHA, treatmentItemFromProposal, type Proposal } from '../../../src/lib/treatment/planner';
+import { bandRegion, planTreatment, POROUS_TARGET_ALPHA, type Proposal } from '../../../src/lib/treatment/planner';
 
 const byKind = <K extends Proposal['kind']>(ps: Proposal[], kind: K) => ps.find((p): p is Extract<Proposal, { kind: K }> => p.kind === kind);
 
@@ -46,7 +46,7 @@ describe('a modal problem band, 40–60 Hz', () => {
 		if (!trap) throw new Error('no trap');
 		const flat = (v: number) => PLANNING_BANDS_HZ.map(() => v);
 		const cal = calibrate({ volumeM3: 60, patches: [{ areaM2: 94, coefficients: flat(0.05) }], measuredS: flat(0.8) });
-		const [p63] = predictWithTreatment(cal, [treatmentItemFromProposal(trap, 4)]);
+		const [p63] = predictWithTreatment(cal, [{ label: trap.title, areaM2: 4, coefficients: trap.coefficients }]);
 		expect(p63.predictedS as number).toBeLessThan(0.8);
 	});
 });

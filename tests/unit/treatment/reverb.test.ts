@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { airAttenuationDbPerM, airIntensityAttenuationPerM } from '../../../src/lib/treatment/airAbsorption';
+import { airAttenuationDbPerM, airIntensityAttenuationPerM } from '../../../src/lib/treatment/air';
 import { PLANNING_BANDS_HZ } from '../../../src/lib/treatment/bands';
 import {
 	absorptionForTime,
