@@ -8,7 +8,8 @@ import { startWorker } from './processes';
 import { seedDemo } from './demo/seed';
 import { loadConfig } from '../src/lib/server/config';
 import { knexSettings } from '../src/lib/server/db';
-import { encodeWav, exponentialNoiseDecay } from '../src/lib/analysis';
+import { encodeWav } from '../src/lib/analysis';
+import { exponentialNoiseDecay } from '../src/lib/analysis/synthetic';
 import { createHash } from 'node:crypto';
 
 const COUNT = 24;

@@ -3,7 +3,6 @@
 // reverberation time, a few lightly damped axial modes, and a background-noise floor.
 // Invented but physically plausible; for the demo only — never used as a check value.
 import {
-	createSeededGaussian,
 	designButterworthBandpass,
 	filterForwardInPlace,
 	firstOrderImages,
@@ -11,6 +10,7 @@ import {
 	type Point3,
 	type RoomBox
 } from '../../src/lib/analysis';
+import { createSeededGaussian } from '../../src/lib/analysis/synthetic';
 import { treatedT60S, UNTREATED_T60_S } from './plan';
 
 export interface Condition {

@@ -1,6 +1,7 @@
 // WAV files for pipeline tests, made from formulas (an exponential decay of known T).
 import { createHash } from 'node:crypto';
-import { encodeWav, exponentialNoiseDecay } from '../../src/lib/analysis';
+import { encodeWav } from '../../src/lib/analysis';
+import { exponentialNoiseDecay } from '../../src/lib/analysis/synthetic';
 
 export function decayWav(options: { t60S?: number; durationS?: number; seed?: number; sampleRate?: number; noiseDbRePeak?: number } = {}): Uint8Array {
 	const sampleRate = options.sampleRate ?? 48_000;

@@ -66,7 +66,6 @@ export { fitDecayRange, curvaturePercent, EVALUATION_RANGES, type DecayFit, type
 export { energyParameters, type EnergyParameters, type DecayTail } from './energy';
 export { REQUIRED_PEAK_TO_NOISE_DB, FILTER_BIAS_MIN_BT, CURVATURE_LIMIT_PERCENT, isFilterBiased } from './quality';
 export { analyseDecay, type DecayAnalysis, type BandProblem } from './band-metrics';
-export { createSeededRandom, createSeededGaussian, energyDecayRate, exponentialNoiseDecay, multiToneDecay } from './synthetic';
 
 // Envelope, reflections, response, time–frequency, room, targets and comparison.
 export * from './envelope';
