@@ -12,8 +12,7 @@ import { removeAbandonedUploads } from '../src/lib/server/captures/service';
 
 const HOUSEKEEPING_MS = 10 * 60_000;
 
-const POLL_MS = Number(process.env.WORKER_POLL_MS ?? 500);
-const LEASE_MS = Number(process.env.JOB_LEASE_MS ?? 60_000);
+const { WORKER_POLL_MS: POLL_MS, JOB_LEASE_MS: LEASE_MS } = config();
 const owner = `${hostname()}:${process.pid}`;
 const log = (m: string) => console.log(`[worker ${owner}] ${m}`);
 

@@ -33,7 +33,13 @@ const configSchema = z.object({
 
 	PUBLIC_BASE_URL: z.string().default('http://127.0.0.1:3000'),
 	UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(200 * 1024 * 1024),
-	ANALYSIS_MAX_DURATION_S: z.coerce.number().positive().default(60)
+	ANALYSIS_MAX_DURATION_S: z.coerce.number().positive().default(60),
+
+	// Signs the session tokens; `npm start` generates one into .data/auth-secret.
+	AUTH_SECRET: z.string().optional(),
+	// How often an idle worker looks for work, and how long a claimed job stays its own.
+	WORKER_POLL_MS: z.coerce.number().int().positive().default(500),
+	JOB_LEASE_MS: z.coerce.number().int().positive().default(60_000)
 });
 
 export type AppConfig = z.infer<typeof configSchema>;

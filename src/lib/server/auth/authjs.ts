@@ -2,6 +2,7 @@
 import { SvelteKitAuth, type SvelteKitAuthConfig } from '@auth/sveltekit';
 import Credentials from '@auth/sveltekit/providers/credentials';
 import { Auth, raw, skipCSRFCheck } from '@auth/core';
+import { config } from '../config';
 import { db } from '../db';
 import { verifyPassword } from './password';
 import { signInSchema } from '../../schemas/auth';
@@ -10,7 +11,7 @@ const SESSION_HOURS = 12;
 
 export function authConfig(): SvelteKitAuthConfig {
 	return {
-		secret: process.env.AUTH_SECRET,
+		secret: config().AUTH_SECRET,
 		trustHost: true,
 		basePath: '/auth',
 		session: { strategy: 'jwt', maxAge: SESSION_HOURS * 3600 },
