@@ -40,6 +40,61 @@ export function startWorker(env: Record<string, string>, quiet = false): Child {
 	return startChild('worker', process.execPath, ['--import', 'tsx', 'scripts/worker.ts'], env, quiet);
 }
 
+export interface Supervised {
+	name: string;
+	/** Stop restarting and stop the process that runs now. */
+	stop(): Promise<void>;
+}
+
+export interface Backoff {
+	/** First wait before a restart, doubled after each quick exit up to `maxMs`. */
+	minMs: number;
+	maxMs: number;
+	/** A process that ran this long counts as healthy: the next wait starts again at `minMs`. */
+	healthyAfterMs: number;
+}
+
+export const RESTART_BACKOFF: Backoff = { minMs: 1_000, maxMs: 30_000, healthyAfterMs: 60_000 };
+
+// Ctrl-C signals the whole process group: the child may exit a moment before the launcher's own
+// handler runs. An exit is judged only after this, so a stop in progress is not taken for a crash.
+const SETTLE_MS = 250;
+
+/** Keep a process running: when it exits on its own, start it again after a growing wait. */
+export function supervise(name: string, start: () => Child, backoff: Backoff = RESTART_BACKOFF, log = console.error): Supervised {
+	let current: Child;
+	let stopped = false;
+	let waitMs = backoff.minMs;
+	let timer: ReturnType<typeof setTimeout> | undefined;
+	const launch = () => {
+		const startedAt = Date.now();
+		current = start();
+		current.process.once('exit', (code, signal) => {
+			timer = setTimeout(() => {
+				if (stopped) return;
+				if (Date.now() - startedAt >= backoff.healthyAfterMs) waitMs = backoff.minMs;
+				log(`${name} exited (${signal ?? code}); starting it again in ${(waitMs / 1000).toFixed(1)} s`);
+				timer = setTimeout(launch, waitMs);
+				waitMs = Math.min(waitMs * 2, backoff.maxMs);
+			}, SETTLE_MS);
+		});
+	};
+	launch();
+	return {
+		name,
+		async stop() {
+			stopped = true;
+			clearTimeout(timer);
+			await current.stop();
+		}
+	};
+}
+
+/** Call `then` when the process exits on its own — not when a stop of everything caused it. */
+export function onUnexpectedExit(child: Child, stopping: () => boolean, then: (code: number | null, signal: NodeJS.Signals | null) => void): void {
+	child.process.once('exit', (code, signal) => setTimeout(() => stopping() || then(code, signal), SETTLE_MS));
+}
+
 export async function waitForHttp(url: string, timeoutMs = 60_000): Promise<void> {
 	const until = Date.now() + timeoutMs;
 	for (;;) {
