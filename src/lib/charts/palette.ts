@@ -1,9 +1,7 @@
-// Chart colours: the app's palette (tailwind.config.ts is the one source), tones for series,
-// a qualitative cycle for overlays, and severity shades for problem bands.
-import tailwindConfig from '../../../tailwind.config';
+// Chart colours: the app's palette (src/lib/colours.ts, which Tailwind reads too), tones for
+// series, a qualitative cycle for overlays, and severity shades for problem bands.
+import { APP_COLOURS as colours, SERIES_HUES } from '../colours';
 import { withAlpha } from './colour';
-
-const colours = tailwindConfig.theme.extend.colors;
 
 export const CHART_COLOURS = {
 	ink: colours.ink.DEFAULT,
@@ -34,9 +32,9 @@ export const OVERLAY_CYCLE = [
 	colours.target.DEFAULT,
 	colours.caution.DEFAULT,
 	colours.after.DEFAULT,
-	'#2f6690',
+	SERIES_HUES.slate,
 	colours.before.DEFAULT,
-	'#6b7a2a',
+	SERIES_HUES.olive,
 	colours.alarm.DEFAULT
 ] as const;
 

@@ -1,4 +1,6 @@
-// The report's look: A4 geometry, ink and series colours, type sizes. Our own calm palette.
+// The report's look: A4 geometry, ink and series colours, type sizes. Inks and series tones are
+// the app's palette (src/lib/colours.ts); rules, grid and panel greys are the page's own.
+import { APP_COLOURS } from '../../colours';
 
 /** A4 in PDF points (ISO 216: 210 × 297 mm, 72 pt per inch). */
 export const PAGE = {
@@ -15,16 +17,16 @@ export const PAGE = {
 export const CONTENT_WIDTH = PAGE.width - PAGE.marginLeft - PAGE.marginRight;
 
 export const COLOURS = {
-	ink: '#1d2430',
-	inkSoft: '#4b5563',
-	inkFaint: '#8a93a0',
+	ink: APP_COLOURS.ink.DEFAULT,
+	inkSoft: APP_COLOURS.ink.soft,
+	inkFaint: APP_COLOURS.ink.faint,
 	rule: '#d5dbe2',
 	grid: '#e6eaef',
 	panel: '#f3f5f8',
-	after: '#0f766e',
-	before: '#a8764f',
-	target: '#6d5bd0',
-	problem: '#1d2430'
+	after: APP_COLOURS.after.DEFAULT,
+	before: APP_COLOURS.before.DEFAULT,
+	target: APP_COLOURS.target.DEFAULT,
+	problem: APP_COLOURS.ink.DEFAULT
 } as const;
 
 export const TYPE = {
