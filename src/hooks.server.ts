@@ -2,6 +2,8 @@ import { error, redirect, type Handle, type HandleServerError, type ServerInit }
 import { sequence } from '@sveltejs/kit/hooks';
 import { authHandle } from '$lib/server/auth/authjs';
 import { loadSessionUser } from '$lib/server/auth/session-user';
+import { bodyLimitFor, limitBody } from '$lib/server/body-limit';
+import { config } from '$lib/server/config';
 import { closeDb, db } from '$lib/server/db';
 
 // Pages anyone may open; everything else needs a signed-in user (deny by default).
@@ -10,6 +12,12 @@ const PUBLIC_PATHS = [/^\/signin$/, /^\/signout$/, /^\/invitation\/[^/]+$/, /^\/
 export const init: ServerInit = async () => {
 	// Close the pool on shutdown, or the server takes ~30 s to exit.
 	process.once('sveltekit:shutdown', () => void closeDb());
+};
+
+// Bodies are capped before anything reads them (see body-limit.ts).
+const limitBodies: Handle = async ({ event, resolve }) => {
+	const refused = await limitBody(event, bodyLimitFor(event.route.id, config()));
+	return refused ?? resolve(event);
 };
 
 // Sign-in goes only through our /signin action (which rate-limits); Auth.js's own credential
@@ -60,7 +68,7 @@ const securityHeaders: Handle = async ({ event, resolve }) => {
 	return response;
 };
 
-export const handle = sequence(closeDirectAuthPosts, authHandle, loadUser, requireSignIn, securityHeaders);
+export const handle = sequence(limitBodies, closeDirectAuthPosts, authHandle, loadUser, requireSignIn, securityHeaders);
 
 export const handleError: HandleServerError = ({ error: err, event, status, message }) => {
 	const errorId = crypto.randomUUID();

@@ -33,6 +33,8 @@ const configSchema = z.object({
 
 	PUBLIC_BASE_URL: z.string().default('http://127.0.0.1:3000'),
 	UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(200 * 1024 * 1024),
+	// Largest request body of every route but the scripted upload (browsers upload to storage).
+	BODY_MAX_BYTES: z.coerce.number().int().positive().default(1024 * 1024),
 	ANALYSIS_MAX_DURATION_S: z.coerce.number().positive().default(60),
 
 	// Signs the session tokens; `npm start` generates one into .data/auth-secret.
