@@ -6,8 +6,27 @@ const config = {
 	preprocess: vitePreprocess(),
 	kit: {
 		adapter: adapter({ out: 'build' }),
-		// SvelteKit's origin check stays on (the default); ORIGIN is set for `node build`.
-		csrf: { trustedOrigins: [] }
+		// SvelteKit's origin check stays on (the default); ORIGIN is set for `node build`. The
+		// handle in hooks.server.ts extends it to every content type and to requests without Origin.
+		csrf: { trustedOrigins: [] },
+		// Scripts only from the app itself (SvelteKit adds each page's nonce). Inline styles are
+		// allowed: Svelte's `style:` directives render style attributes. The object store the
+		// browser uploads to is a runtime setting: hooks.server.ts adds it to connect-src.
+		csp: {
+			mode: 'auto',
+			directives: {
+				'default-src': ['self'],
+				'script-src': ['self'],
+				'style-src': ['self', 'unsafe-inline'],
+				'img-src': ['self', 'data:', 'blob:'],
+				'font-src': ['self'],
+				'connect-src': ['self'],
+				'object-src': ['none'],
+				'base-uri': ['self'],
+				'form-action': ['self'],
+				'frame-ancestors': ['none']
+			}
+		}
 	}
 };
 

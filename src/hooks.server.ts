@@ -1,9 +1,10 @@
-import { error, redirect, type Handle, type HandleServerError, type ServerInit } from '@sveltejs/kit';
+import { error, json, redirect, type Handle, type HandleServerError, type RequestEvent, type ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { authHandle } from '$lib/server/auth/authjs';
 import { loadSessionUser } from '$lib/server/auth/session-user';
 import { bodyLimitFor, limitBody } from '$lib/server/body-limit';
 import { config } from '$lib/server/config';
+import { storageOrigin, withSources } from '$lib/server/content-security';
 import { closeDb, db } from '$lib/server/db';
 
 // Pages anyone may open; everything else needs a signed-in user (deny by default).
@@ -14,10 +15,40 @@ export const init: ServerInit = async () => {
 	process.once('sveltekit:shutdown', () => void closeDb());
 };
 
+function refusal(event: RequestEvent, status: number, message: string): Response {
+	const wantsJson = event.url.pathname.startsWith('/api/') || (event.request.headers.get('accept') ?? '').includes('application/json');
+	return wantsJson ? json({ message }, { status }) : new Response(message, { status, headers: { 'content-type': 'text/plain; charset=utf-8' } });
+}
+
+const securityHeaders: Handle = async ({ event, resolve }) => {
+	const response = await resolve(event);
+	response.headers.set('x-content-type-options', 'nosniff');
+	response.headers.set('referrer-policy', 'same-origin');
+	response.headers.set('x-frame-options', 'DENY');
+	const csp = response.headers.get('content-security-policy');
+	if (csp) response.headers.set('content-security-policy', withSources(csp, 'connect-src', [storageOrigin(config())]));
+	return response;
+};
+
 // Bodies are capped before anything reads them (see body-limit.ts).
 const limitBodies: Handle = async ({ event, resolve }) => {
 	const refused = await limitBody(event, bodyLimitFor(event.route.id, config()));
 	return refused ?? resolve(event);
+};
+
+// Browsers send Origin with every POST, PUT, PATCH and DELETE: one from another site is refused
+// whatever its content type (SvelteKit's own check covers form content types only). Without an
+// Origin, only a request carrying no cookies passes — it cannot be riding someone's session
+// (a script with an Authorization header, for example).
+const STATE_CHANGING = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
+
+const refuseCrossSiteChanges: Handle = async ({ event, resolve }) => {
+	if (STATE_CHANGING.has(event.request.method)) {
+		const origin = event.request.headers.get('origin');
+		const crossSite = origin === null ? Boolean(event.request.headers.get('cookie')) : origin !== event.url.origin;
+		if (crossSite) return refusal(event, 403, 'Changes from another site are refused.');
+	}
+	return resolve(event);
 };
 
 // Sign-in goes only through our /signin action (which rate-limits); Auth.js's own credential
@@ -49,26 +80,21 @@ const requireSignIn: Handle = async ({ event, resolve }) => {
 	const p = event.url.pathname;
 	const open = p.startsWith('/auth/') || p.startsWith('/_app/') || PUBLIC_PATHS.some((r) => r.test(p));
 	if (!open && !event.locals.user) {
-		if (p.startsWith('/api/')) {
-			return new Response(JSON.stringify({ message: 'Sign in to continue.' }), {
-				status: 401,
-				headers: { 'content-type': 'application/json' }
-			});
-		}
+		if (p.startsWith('/api/')) return refusal(event, 401, 'Sign in to continue.');
 		redirect(303, `/signin?redirectTo=${encodeURIComponent(p + event.url.search)}`);
 	}
 	return resolve(event);
 };
 
-const securityHeaders: Handle = async ({ event, resolve }) => {
-	const response = await resolve(event);
-	response.headers.set('x-content-type-options', 'nosniff');
-	response.headers.set('referrer-policy', 'same-origin');
-	response.headers.set('x-frame-options', 'DENY');
-	return response;
-};
-
-export const handle = sequence(limitBodies, closeDirectAuthPosts, authHandle, loadUser, requireSignIn, securityHeaders);
+export const handle = sequence(
+	securityHeaders,
+	limitBodies,
+	refuseCrossSiteChanges,
+	closeDirectAuthPosts,
+	authHandle,
+	loadUser,
+	requireSignIn
+);
 
 export const handleError: HandleServerError = ({ error: err, event, status, message }) => {
 	const errorId = crypto.randomUUID();

@@ -3,16 +3,23 @@ import { SvelteKitAuth, type SvelteKitAuthConfig } from '@auth/sveltekit';
 import Credentials from '@auth/sveltekit/providers/credentials';
 import { Auth, raw, skipCSRFCheck } from '@auth/core';
 import { config } from '../config';
+import { config } from '../config';
 import { db } from '../db';
 import { verifyPassword } from './password';
 import { signInSchema } from '../../schemas/auth';
 
 const SESSION_HOURS = 12;
 
+/** Cookies are Secure exactly when the public address is HTTPS (not per request, behind a proxy). */
+export function usesSecureCookies(): boolean {
+	return new URL(config().PUBLIC_BASE_URL).protocol === 'https:';
+}
+
 export function authConfig(): SvelteKitAuthConfig {
 	return {
 		secret: config().AUTH_SECRET,
 		trustHost: true,
+		useSecureCookies: usesSecureCookies(),
 		basePath: '/auth',
 		session: { strategy: 'jwt', maxAge: SESSION_HOURS * 3600 },
 		pages: { signIn: '/signin', error: '/signin' },
