@@ -6,6 +6,8 @@ declare global {
 		interface Error {
 			message: string;
 			errorId?: string;
+			/** `unavailable` when a dependency is down (the page says so, not "something went wrong"). */
+			code?: 'unavailable';
 		}
 		interface Locals {
 			user: SessionUser | null;

@@ -6,14 +6,24 @@ import { bodyLimitFor, limitBody } from '$lib/server/body-limit';
 import { config } from '$lib/server/config';
 import { storageOrigin, withSources } from '$lib/server/content-security';
 import { closeDb, db } from '$lib/server/db';
+import { isDatabaseUnreachable } from '$lib/server/db-errors';
+import { Problem } from '$lib/server/problem';
 
 // Pages anyone may open; everything else needs a signed-in user (deny by default).
 const PUBLIC_PATHS = [/^\/signin$/, /^\/signout$/, /^\/invitation\/[^/]+$/, /^\/password\/(forgot|reset\/[^/]+)$/, /^\/health$/];
+
+const UNAVAILABLE = 'Ringdown is briefly unavailable. Try again in a moment.';
+const RETRY_AFTER_S = '10';
 
 export const init: ServerInit = async () => {
 	// Close the pool on shutdown, or the server takes ~30 s to exit.
 	process.once('sveltekit:shutdown', () => void closeDb());
 };
+
+/** A dependency (the database, object storage) is down, as opposed to a fault of ours. */
+function isOutage(e: unknown): boolean {
+	return isDatabaseUnreachable(e) || (e instanceof Problem && e.status === 503);
+}
 
 function refusal(event: RequestEvent, status: number, message: string): Response {
 	const wantsJson = event.url.pathname.startsWith('/api/') || (event.request.headers.get('accept') ?? '').includes('application/json');
@@ -28,6 +38,19 @@ const securityHeaders: Handle = async ({ event, resolve }) => {
 	const csp = response.headers.get('content-security-policy');
 	if (csp) response.headers.set('content-security-policy', withSources(csp, 'connect-src', [storageOrigin(config())]));
 	return response;
+};
+
+// Errors of loads and actions reach handleError, which cannot set the status; it marks the
+// request, and an outage is answered 503 (with its page or JSON) instead of 500. The mark is on
+// `locals`: handleError may get a copy of the event, but the same locals.
+const outages = new WeakSet<App.Locals>();
+
+const answerOutagesAs503: Handle = async ({ event, resolve }) => {
+	const response = await resolve(event);
+	if (response.status !== 500 || !outages.has(event.locals)) return response;
+	const headers = new Headers(response.headers);
+	headers.set('retry-after', RETRY_AFTER_S);
+	return new Response(response.body, { status: 503, headers });
 };
 
 // Bodies are capped before anything reads them (see body-limit.ts).
@@ -64,10 +87,19 @@ const closeDirectAuthPosts: Handle = async ({ event, resolve }) => {
 const loadUser: Handle = async ({ event, resolve }) => {
 	event.locals.user = null;
 	event.locals.memberships = [];
+	// /health reports each dependency itself, for anyone, signed in or not.
+	if (event.url.pathname === '/health') return resolve(event);
 	const session = await event.locals.auth();
 	const id = Number(session?.user?.id);
 	if (Number.isInteger(id) && id > 0) {
-		const loaded = await loadSessionUser(db(), id);
+		let loaded;
+		try {
+			loaded = await loadSessionUser(db(), id);
+		} catch (e) {
+			// Not "signed out": the person is signed in, the database is just not answering.
+			if (isOutage(e)) error(503, { message: UNAVAILABLE, code: 'unavailable' });
+			throw e;
+		}
 		if (loaded) {
 			event.locals.user = loaded.user;
 			event.locals.memberships = loaded.memberships;
@@ -88,6 +120,7 @@ const requireSignIn: Handle = async ({ event, resolve }) => {
 
 export const handle = sequence(
 	securityHeaders,
+	answerOutagesAs503,
 	limitBodies,
 	refuseCrossSiteChanges,
 	closeDirectAuthPosts,
@@ -98,6 +131,11 @@ export const handle = sequence(
 
 export const handleError: HandleServerError = ({ error: err, event, status, message }) => {
 	const errorId = crypto.randomUUID();
+	if (status >= 500 && isOutage(err)) {
+		outages.add(event.locals);
+		console.error(`[${errorId}] ${event.request.method} ${event.url.pathname}: unavailable (${(err as { code?: string }).code ?? (err as Error).message})`);
+		return { message: UNAVAILABLE, errorId, code: 'unavailable' };
+	}
 	if (status >= 500) console.error(`[${errorId}] ${event.request.method} ${event.url.pathname}`, err);
 	return { message: status >= 500 ? 'Something went wrong on our side.' : message, errorId };
 };
