@@ -3,7 +3,7 @@ import type { Knex } from 'knex';
 import { testDb } from '../helpers/db';
 import { makeOrganization, makeProjectTree, makeUser } from '../helpers/factories';
 import { Client, signedInClient } from '../helpers/http';
-import { createInvitation, createPasswordReset, INVITATION_DAYS, RESET_HOURS } from '../../src/lib/server/queries/members';
+import { createInvitation, createPasswordReset, INVITATION_DAYS, RESET_HOURS } from '../../src/lib/server/queries/tokens';
 import { hashToken } from '../../src/lib/server/auth/tokens';
 
 let k: Knex;

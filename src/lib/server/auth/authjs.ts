@@ -3,8 +3,8 @@ import { SvelteKitAuth, type SvelteKitAuthConfig } from '@auth/sveltekit';
 import Credentials from '@auth/sveltekit/providers/credentials';
 import { Auth, raw, skipCSRFCheck } from '@auth/core';
 import { config } from '../config';
-import { config } from '../config';
 import { db } from '../db';
+import { findAccount } from '../queries/users';
 import { verifyPassword } from './password';
 import { signInSchema } from '../../schemas/auth';
 
@@ -35,8 +35,8 @@ export function authConfig(): SvelteKitAuthConfig {
 				async authorize(input) {
 					const parsed = signInSchema.safeParse(input);
 					if (!parsed.success) return null;
-					const user = await db()('users').where({ email: parsed.data.email }).first('id', 'email', 'name', 'password_hash');
-					if (!user || !(await verifyPassword(user.password_hash, parsed.data.password))) return null;
+					const user = await findAccount(db(), parsed.data.email);
+					if (!user || !(await verifyPassword(user.passwordHash, parsed.data.password))) return null;
 					return { id: String(user.id), email: user.email, name: user.name };
 				}
 			})

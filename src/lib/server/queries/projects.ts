@@ -76,3 +76,16 @@ export async function listProjectClients(k: Knex, projectId: number): Promise<Pr
 export async function addProjectClient(k: Knex, projectId: number, userId: number): Promise<void> {
 	await k('project_members').insert({ project_id: projectId, user_id: userId }).onConflict(['project_id', 'user_id']).ignore();
 }
+
+export async function isProjectMember(k: Knex, projectId: number, userId: number): Promise<boolean> {
+	return Boolean(await k('project_members').where({ project_id: projectId, user_id: userId }).first('id'));
+}
+
+/** The organization's projects by name, for pickers. */
+export async function listProjectNames(k: Knex, organizationId: number): Promise<{ id: number; name: string }[]> {
+	return k('projects').where({ organization_id: organizationId }).orderBy('name').select('id', 'name');
+}
+
+export async function isProjectOf(k: Knex, projectId: number, organizationId: number): Promise<boolean> {
+	return Boolean(await k('projects').where({ id: projectId, organization_id: organizationId }).first('id'));
+}

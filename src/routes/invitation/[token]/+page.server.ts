@@ -1,9 +1,6 @@
 import { error, redirect } from '@sveltejs/kit';
-import { db } from '$lib/server/db';
-import { formFail, parseForm } from '$lib/server/forms';
-import { acceptInvitation, findUsableInvitation } from '$lib/server/queries/members';
-import { recordAudit } from '$lib/server/audit';
-import { transaction } from '$lib/server/transaction';
+import { parseForm, problemToFailure } from '$lib/server/forms';
+import * as people from '$lib/server/people/service';
 import { setPasswordSchema } from '$lib/schemas/auth';
 import { ROLE_LABELS } from '$lib/roles';
 import type { Actions, PageServerLoad } from './$types';
@@ -11,7 +8,7 @@ import type { Actions, PageServerLoad } from './$types';
 const GONE = 'This invitation link has been used or has expired. Ask for a new one.';
 
 export const load = (async ({ params }) => {
-	const inv = await findUsableInvitation(db(), params.token);
+	const inv = await people.usableInvitation(params.token);
 	if (!inv) error(410, GONE);
 	return {
 		email: inv.email,
@@ -23,21 +20,18 @@ export const load = (async ({ params }) => {
 
 export const actions = {
 	default: async ({ request, params }) => {
+		// The token comes from the address; the schema checks it with the passwords.
 		const form = await request.formData();
 		form.set('token', params.token);
 		const parsed = parseForm(setPasswordSchema, form);
 		if (!parsed.ok) return parsed.failure;
-		const inv = await findUsableInvitation(db(), params.token);
-		if (!inv) error(410, GONE);
-		if (!inv.existingUser && !parsed.data.name) {
-			return formFail(400, form, 'Enter your name.', { name: 'Enter your name.' });
+		let userId: number | null;
+		try {
+			userId = await people.acceptInvitation(params.token, parsed.data);
+		} catch (e) {
+			return problemToFailure(e, form);
 		}
-		const accepted = await transaction(async (trx) => {
-			const r = await acceptInvitation(trx, params.token, { name: parsed.data.name ?? '', password: parsed.data.password });
-			if (r) await recordAudit(trx, { organizationId: null, userId: r.userId, action: 'invitation.accepted', entityType: 'user', entityId: r.userId });
-			return r;
-		});
-		if (!accepted) error(410, GONE);
+		if (userId === null) error(410, GONE);
 		redirect(303, '/signin?reset=1');
 	}
 } satisfies Actions;
