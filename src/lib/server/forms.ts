@@ -53,23 +53,25 @@ export function parseForm<S extends z.ZodType>(
 export function problemToFailure(e: unknown, formData: FormData): ActionFailure<FormFailure> {
 	const p = e instanceof Problem ? e : problemFromDbError(e);
 	if (!p) throw e;
-	return formFail(p.status, formData, p.message, p.field ? { [p.field]: p.message } : {});
+	// Like the JSON answer: several fields at once in `details.errors`, else the one field named.
+	const errors = (p.details.errors as FieldErrors | undefined) ?? (p.field ? { [p.field]: p.message } : {});
+	return formFail(p.status, formData, p.message, errors);
 }
 
 /**
  * The body of a form action after `authorize()`: read and parse the form, run the service with
  * the parsed input, and answer with its result or the refusal. A `redirect()` inside `work`
- * passes through.
+ * passes through. A schema that depends on the form (its length unit) is given as a function of it.
  *
  *   return formAction(request, roomSchema, (input) => rooms.update(scope, roomId, input));
  */
 export async function formAction<S extends z.ZodType, R>(
 	request: Request,
-	schema: S,
+	schema: S | ((formData: FormData) => S),
 	work: (input: z.infer<S>, formData: FormData) => Promise<R>
 ): Promise<R | ActionFailure<FormFailure>> {
 	const formData = await request.formData();
-	const parsed = parseForm(schema, formData);
+	const parsed = parseForm(typeof schema === 'function' ? schema(formData) : schema, formData);
 	if (!parsed.ok) return parsed.failure;
 	try {
 		return await work(parsed.data, formData);

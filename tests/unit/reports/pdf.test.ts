@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { renderReportPdf, ReportInputError, type ReportDocument } from '../../../src/lib/server/reports/pdf';
+import { renderReportPdf, type ReportDocument } from '../../../src/lib/server/reports/pdf';
+import { Problem } from '../../../src/lib/server/problem';
 import type { ProblemBandView } from '../../../src/lib/results/types';
 import { idealC80Db, sparseComparison, typicalReport } from './helpers/comparison-factory';
 import { inspectPdf, normaliseSpace, requirePoppler, type InspectedPdf } from './helpers/poppler';
@@ -257,7 +258,7 @@ describe('renderReportPdf: input checks', () => {
 	it.each(cases)('rejects $name', async ({ change, message }) => {
 		const report = typicalReport();
 		change(report);
-		await expect(renderReportPdf(report)).rejects.toThrow(ReportInputError);
+		await expect(renderReportPdf(report)).rejects.toThrow(Problem);
 		await expect(renderReportPdf(report)).rejects.toThrow(message);
 	});
 

@@ -1,5 +1,6 @@
 // Rows of a room's treatment plan, its finishes and openings, and the organization's materials.
 import type { Knex } from 'knex';
+import { readJson } from '../json-column';
 import { customMaterialKey, itemParamsSchema } from '../../schemas/treatment';
 import { TABLE_BANDS_HZ, type TableBandValues } from '../../treatment/bands';
 import { MATERIALS, type Material } from '../../treatment/materials';
@@ -21,8 +22,6 @@ export interface CustomMaterialRow extends Material {
 	/** Rooms whose surfaces or openings use it (it cannot be deleted while used). */
 	usedBy: number;
 }
-
-const parseJson = (v: unknown) => (typeof v === 'string' ? JSON.parse(v) : v);
 
 function materialKeyOf(r: { material_id: string | null; custom_material_id: number | null }): MaterialKey {
 	return r.custom_material_id !== null ? customMaterialKey(r.custom_material_id) : (r.material_id ?? DEFAULT_FINISH);
@@ -100,7 +99,7 @@ function itemOf(r: Record<string, unknown>): PlanItem {
 		widthMm: Number(r.width_mm),
 		heightMm: Number(r.height_mm),
 		// Parsed, not trusted: a row written by an older version fails here with a clear message.
-		params: itemParamsSchema.parse(parseJson(r.params)),
+		params: itemParamsSchema.parse(readJson(r.params)),
 		unitPrice: r.unit_price === null ? null : Number(r.unit_price),
 		problemBandId: (r.problem_band_id as number | null) ?? null,
 		why: (r.why as string | null) ?? null
@@ -220,4 +219,37 @@ export async function insertStock(k: Knex, planId: number, s: Omit<StockSheetRow
 		price: s.price
 	});
 	return id;
+}
+
+/** Whether the room's plan is to be shown in its report and has something in it. */
+export async function hasSharedPlan(k: Knex, roomId: number): Promise<boolean> {
+	const shared = await k('treatment_plans as p')
+		.where({ 'p.room_id': roomId, 'p.include_in_report': true })
+		.whereExists((q) => q.select(k.raw('1')).from('treatment_items as i').whereRaw('i.plan_id = p.id'))
+		.first('p.id');
+	return Boolean(shared);
+}
+
+/** Remove an opening of the room; how many rows went (0 when it is not of this room). */
+export async function deleteOpening(k: Knex, roomId: number, openingId: number): Promise<number> {
+	return k('room_openings').where({ id: openingId, room_id: roomId }).del();
+}
+
+/** The plan an item belongs to, if that plan is the room's. */
+export async function planOfItem(k: Knex, roomId: number, itemId: number): Promise<number | undefined> {
+	const row = await k('treatment_items as i').join('treatment_plans as p', 'p.id', 'i.plan_id').where({ 'i.id': itemId, 'p.room_id': roomId }).first('p.id as planId');
+	return row?.planId;
+}
+
+export async function deleteItem(k: Knex, itemId: number): Promise<void> {
+	await k('treatment_items').where({ id: itemId }).del();
+}
+
+/** Remove a sheet from the plan's stock; how many rows went (0 when it is not on this plan). */
+export async function deleteStock(k: Knex, planId: number, stockId: number): Promise<number> {
+	return k('stock_sheets').where({ id: stockId, plan_id: planId }).del();
+}
+
+export async function deleteCustomMaterial(k: Knex, id: number): Promise<void> {
+	await k('custom_materials').where({ id }).del();
 }

@@ -109,3 +109,43 @@ export async function listReportsForClient(k: Knex, userId: number): Promise<Pub
 		.orderBy('c.published_at', 'desc')
 		.select({ id: 'c.id', title: 'c.title', roomId: 'r.id', roomName: 'r.name', projectName: 'p.name', publishedAt: 'c.published_at' });
 }
+
+export async function isComparisonOfRoom(k: Knex, comparisonId: number, roomId: number): Promise<boolean> {
+	return Boolean(await k('comparisons').where({ id: comparisonId, room_id: roomId }).first('id'));
+}
+
+export async function saveComparisonAdvice(k: Knex, id: number, advice: string, shareQualityNotes: boolean): Promise<void> {
+	await k('comparisons').where({ id }).update({ advice, share_quality_notes: shareQualityNotes });
+}
+
+export interface ComparisonToPublish {
+	title: string;
+	publishedAt: Date | null;
+	roomName: string;
+	projectId: number;
+}
+
+/** The comparison with its room and project, locked so it is published (and mailed) once. */
+export async function lockComparisonToPublish(trx: Knex.Transaction, id: number): Promise<ComparisonToPublish | undefined> {
+	return trx('comparisons as cm')
+		.join('rooms as r', 'r.id', 'cm.room_id')
+		.where('cm.id', id)
+		.forUpdate()
+		.first({ title: 'cm.title', publishedAt: 'cm.published_at', roomName: 'r.name', projectId: 'r.project_id' });
+}
+
+export async function markPublished(k: Knex, id: number, userId: number): Promise<void> {
+	await k('comparisons').where({ id }).update({ published_at: k.raw('CURRENT_TIMESTAMP(3)'), published_by: userId });
+}
+
+export async function isProblemBandOfRoom(k: Knex, bandId: number, roomId: number): Promise<boolean> {
+	return Boolean(await k('problem_bands').where({ id: bandId, room_id: roomId }).first('id'));
+}
+
+export async function updateProblemBandStatus(k: Knex, id: number, status: 'open' | 'addressed'): Promise<void> {
+	await k('problem_bands').where({ id }).update({ status });
+}
+
+export async function deleteProblemBand(k: Knex, id: number): Promise<void> {
+	await k('problem_bands').where({ id }).del();
+}

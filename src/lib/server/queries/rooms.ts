@@ -54,3 +54,11 @@ export async function createRoom(k: Knex, projectId: number, r: RoomInput): Prom
 export async function updateRoom(k: Knex, id: number, r: RoomInput): Promise<void> {
 	await k('rooms').where({ id }).update(roomValues(r));
 }
+
+/** Whether every one of these visits is of this room. */
+export async function areVisitsOfRoom(k: Knex, roomId: number, sessionIds: readonly number[]): Promise<boolean> {
+	const wanted = new Set(sessionIds);
+	if (wanted.size === 0) return true;
+	const found = await k('sessions').whereIn('id', [...wanted]).where({ room_id: roomId }).select('id');
+	return found.length === wanted.size;
+}

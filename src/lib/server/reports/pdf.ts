@@ -2,6 +2,7 @@
 // pdfkit (vector charts, embedded mono font for numbers), A4, numbered pages.
 import PDFDocument from 'pdfkit';
 import type { ReportDocument } from './document';
+import { Problem } from '../problem';
 import { registerReportFonts } from './fonts';
 import { stampFooters } from './footer';
 import { ReportPen } from './pen';
@@ -11,30 +12,26 @@ import { PAGE } from './theme';
 
 export type { ReportDocument };
 
-export class ReportInputError extends Error {
-	constructor(message: string) {
-		super(message);
-		this.name = 'ReportInputError';
-	}
-}
+/** The report cannot be drawn from what it was given (the data behind it is incomplete). */
+const incomplete = (message: string) => new Problem(422, message, { code: 'report_incomplete' });
 
 function requireText(name: string, value: unknown): void {
-	if (typeof value !== 'string' || value.trim().length === 0) throw new ReportInputError(`${name} must be a non-empty string`);
+	if (typeof value !== 'string' || value.trim().length === 0) throw incomplete(`${name} must be a non-empty string`);
 }
 
 function checkReport(report: ReportDocument): void {
 	requireText('title', report.title);
 	requireText('practiceName', report.practiceName);
 	if (!(report.publishedAt instanceof Date) || Number.isNaN(report.publishedAt.getTime())) {
-		throw new ReportInputError(`publishedAt must be a valid Date, got ${String(report.publishedAt)}`);
+		throw incomplete(`publishedAt must be a valid Date, got ${String(report.publishedAt)}`);
 	}
-	if (!report.comparison || !report.comparison.room) throw new ReportInputError('comparison with a room is required');
+	if (!report.comparison || !report.comparison.room) throw incomplete('comparison with a room is required');
 	requireText('comparison.room.name', report.comparison.room.name);
-	if (typeof report.advice !== 'string') throw new ReportInputError('advice must be a string (may be empty)');
-	if (!Array.isArray(report.problemBands)) throw new ReportInputError('problemBands must be an array (may be empty)');
+	if (typeof report.advice !== 'string') throw incomplete('advice must be a string (may be empty)');
+	if (!Array.isArray(report.problemBands)) throw incomplete('problemBands must be an array (may be empty)');
 	report.problemBands.forEach((band, i) => {
 		if (!(band.fLoHz > 0) || !(band.fHiHz > band.fLoHz)) {
-			throw new ReportInputError(`problem band ${i} needs 0 < fLoHz < fHiHz, got ${band.fLoHz}…${band.fHiHz} Hz`);
+			throw incomplete(`problem band ${i} needs 0 < fLoHz < fHiHz, got ${band.fLoHz}…${band.fHiHz} Hz`);
 		}
 	});
 }

@@ -1,7 +1,10 @@
 // Everything a comparison or report page shows, loaded once for both.
 import { error } from '@sveltejs/kit';
 import type { Knex } from 'knex';
+import { db } from '../db';
 import { getComparison, listProblemBands } from '../queries/reviews';
+import { getOrganization } from '../queries/organizations';
+import { hasSharedPlan } from '../queries/plans';
 import { getProject } from '../queries/projects';
 import { getRoom } from '../queries/rooms';
 import { analysisSummaries } from '../queries/captures';
@@ -26,23 +29,20 @@ function withoutPositionCurves(model: ComparisonModel): ComparisonModel {
 /** The room's plan for the report, when the consultant chose to show it and it has items. */
 async function reportPlanOf(k: Knex, scope: Scope, roomId: number, organizationId: number, model: ComparisonModel): Promise<PlanReport | null> {
 	// Most rooms have no shared plan: ask before working one through.
-	const shared = await k('treatment_plans as p')
-		.where({ 'p.room_id': roomId, 'p.include_in_report': true })
-		.whereExists((q) => q.select(k.raw('1')).from('treatment_items as i').whereRaw('i.plan_id = p.id'))
-		.first('p.id');
-	if (!shared) return null;
+	if (!(await hasSharedPlan(k, roomId))) return null;
 	const view = await loadPlanView(k, roomId, organizationId, [model.baseline, model.treated]);
 	return planReport(view.plan.items, view.evaluation, view.cost, view.plan.settings.currency, unitOfSystem(scope.user.unitSystem));
 }
 
-export async function loadComparisonPage(k: Knex, scope: Scope, comparisonId: number, options: { positionCurves?: boolean; withPlan?: boolean } = {}) {
+export async function loadComparisonPage(scope: Scope, comparisonId: number, options: { positionCurves?: boolean; withPlan?: boolean } = {}) {
+	const k = db();
 	const comparison = (await getComparison(k, comparisonId))!;
 	const internal = roleAllows(scope.role, 'project:internal');
 	// A client sees a comparison only once it is published, and never learns that a draft exists.
 	if (!internal && !comparison.publishedAt) error(404, 'Not found.');
 	const room = (await getRoom(k, comparison.roomId))!;
 	const project = (await getProject(k, room.projectId))!;
-	const organization = await k('organizations').where({ id: project.organizationId }).first('name');
+	const organization = (await getOrganization(k, project.organizationId))!;
 	const model = await loadComparisonModel(k, comparison);
 	const showQuality = internal || comparison.shareQualityNotes;
 	let qualityNotes: { positionLabel: string; condition: string; messages: string[] }[] = [];
@@ -64,7 +64,7 @@ export async function loadComparisonPage(k: Knex, scope: Scope, comparisonId: nu
 		comparison: { ...comparison, advice: comparison.advice ?? '' },
 		room: { id: room.id, name: room.name, lengthM: room.lengthM, widthM: room.widthM, heightM: room.heightM, volumeM3: room.volumeM3, roomUse: room.roomUse },
 		project: { id: project.id, name: project.name, clientName: project.clientName },
-		practiceName: organization.name as string,
+		practiceName: organization.name,
 		model: options.positionCurves ? model : withoutPositionCurves(model),
 		problemBands: await listProblemBands(k, room.id),
 		plan: options.withPlan ? await reportPlanOf(k, scope, room.id, project.organizationId, model) : null,

@@ -1,81 +1,102 @@
 // A consultant's work on a room: comparisons of two visits, problem bands, advice, publishing.
+// Each change runs in one transaction with its audit record (and, on publishing, its mail).
 import type { Knex } from 'knex';
-import { recordAudit } from './audit';
-import { config } from './config';
-import { enqueueMail } from './mail';
-import { reportPublishedMail } from './messages';
-import { transaction } from './transaction';
-import { Problem } from './problem';
-import { createComparison, createProblemBand } from './queries/reviews';
-import type { Scope } from './auth/access';
+import type { z } from 'zod';
+import { audit } from '../audit';
+import { config } from '../config';
+import { db } from '../db';
+import { enqueueMail } from '../mail';
+import { reportPublishedMail } from '../messages';
+import { invalid, notFound } from '../problem';
+import { transaction } from '../transaction';
+import type { Scope } from '../auth/access';
+import { listProjectClients } from '../queries/projects';
+import {
+	createComparison,
+	createProblemBand,
+	deleteProblemBand,
+	getComparison,
+	isComparisonOfRoom,
+	isProblemBandOfRoom,
+	lockComparisonToPublish,
+	markPublished,
+	saveComparisonAdvice,
+	updateProblemBandStatus
+} from '../queries/reviews';
+import { areVisitsOfRoom } from '../queries/rooms';
+import type { adviceSchema, comparisonSchema, problemBandSchema } from '../../schemas/reviews';
 
+type ComparisonInput = z.output<typeof comparisonSchema>;
+type ProblemBandInput = z.output<typeof problemBandSchema>;
+type AdviceInput = z.output<typeof adviceSchema>;
 
-export async function startComparison(k: Knex, scope: Scope, roomId: number, input: { baselineSessionId: number; treatedSessionId: number; title: string }): Promise<number> {
-	const sessions = await k('sessions').whereIn('id', [input.baselineSessionId, input.treatedSessionId]).select('id', 'room_id');
-	if (sessions.length !== 2 || sessions.some((s) => s.room_id !== roomId)) {
-		throw new Problem(400, 'Both visits must be of this room: a comparison across rooms would compare different spaces.', { field: 'treatedSessionId' });
-	}
+export async function startComparison(scope: Scope, roomId: number, input: ComparisonInput): Promise<number> {
 	return transaction(async (trx) => {
+		if (!(await areVisitsOfRoom(trx, roomId, [input.baselineSessionId, input.treatedSessionId]))) {
+			throw invalid('Both visits must be of this room: a comparison across rooms would compare different spaces.', 'treatedSessionId');
+		}
 		const id = await createComparison(trx, { roomId, ...input, createdBy: scope.user.id });
-		await recordAudit(trx, { organizationId: scope.organizationId, userId: scope.user.id, action: 'comparison.created', entityType: 'comparison', entityId: id });
+		await audit(trx, scope, 'comparison.created', 'comparison', id);
 		return id;
 	});
 }
 
-export async function addProblemBand(
-	scope: Scope,
-	roomId: number,
-	input: { fLoHz: number; fHiHz: number; tLoMs: number | null; tHiMs: number | null; severity: string; note: string; comparisonId: number | null }
-): Promise<number> {
+export async function addProblemBand(scope: Scope, roomId: number, input: ProblemBandInput): Promise<number> {
 	return transaction(async (trx) => {
-		if (input.comparisonId !== null) {
-			const c = await trx('comparisons').where({ id: input.comparisonId, room_id: roomId }).first('id');
-			if (!c) throw new Problem(400, 'That comparison is of another room.', { field: 'comparisonId' });
+		if (input.comparisonId !== null && !(await isComparisonOfRoom(trx, input.comparisonId, roomId))) {
+			throw invalid('That comparison is of another room.', 'comparisonId');
 		}
 		const id = await createProblemBand(trx, roomId, { ...input, authorId: scope.user.id });
-		await recordAudit(trx, { organizationId: scope.organizationId, userId: scope.user.id, action: 'problem_band.created', entityType: 'problem_band', entityId: id, details: { fLoHz: input.fLoHz, fHiHz: input.fHiHz, severity: input.severity } });
+		await audit(trx, scope, 'problem_band.created', 'problem_band', id, { fLoHz: input.fLoHz, fHiHz: input.fHiHz, severity: input.severity });
 		return id;
 	});
 }
 
-export async function setProblemBandStatus(scope: Scope, id: number, status: 'open' | 'addressed'): Promise<void> {
+/** A problem band marked on a comparison's chart: it belongs to the comparison's room. */
+export async function addProblemBandOfComparison(scope: Scope, comparisonId: number, input: ProblemBandInput): Promise<number> {
+	const comparison = (await getComparison(db(), comparisonId))!;
+	return addProblemBand(scope, comparison.roomId, { ...input, comparisonId });
+}
+
+async function checkBandOfRoom(trx: Knex, roomId: number, bandId: number): Promise<void> {
+	if (!(await isProblemBandOfRoom(trx, bandId, roomId))) throw notFound('No such problem band in this room.');
+}
+
+export async function setProblemBandStatus(scope: Scope, roomId: number, bandId: number, status: 'open' | 'addressed'): Promise<void> {
 	await transaction(async (trx) => {
-		await trx('problem_bands').where({ id }).update({ status });
-		await recordAudit(trx, { organizationId: scope.organizationId, userId: scope.user.id, action: `problem_band.${status}`, entityType: 'problem_band', entityId: id });
+		await checkBandOfRoom(trx, roomId, bandId);
+		await updateProblemBandStatus(trx, bandId, status);
+		await audit(trx, scope, `problem_band.${status}`, 'problem_band', bandId);
 	});
 }
 
-export async function removeProblemBand(scope: Scope, id: number): Promise<void> {
+export async function removeProblemBand(scope: Scope, roomId: number, bandId: number): Promise<void> {
 	await transaction(async (trx) => {
-		await trx('problem_bands').where({ id }).del();
-		await recordAudit(trx, { organizationId: scope.organizationId, userId: scope.user.id, action: 'problem_band.deleted', entityType: 'problem_band', entityId: id });
+		await checkBandOfRoom(trx, roomId, bandId);
+		await deleteProblemBand(trx, bandId);
+		await audit(trx, scope, 'problem_band.deleted', 'problem_band', bandId);
 	});
 }
 
-export async function saveAdvice(scope: Scope, comparisonId: number, advice: string, shareQualityNotes: boolean): Promise<void> {
+export async function saveAdvice(scope: Scope, comparisonId: number, input: AdviceInput): Promise<void> {
 	await transaction(async (trx) => {
-		await trx('comparisons').where({ id: comparisonId }).update({ advice, share_quality_notes: shareQualityNotes });
-		await recordAudit(trx, { organizationId: scope.organizationId, userId: scope.user.id, action: 'comparison.advice_saved', entityType: 'comparison', entityId: comparisonId });
+		await saveComparisonAdvice(trx, comparisonId, input.advice, input.shareQualityNotes);
+		await audit(trx, scope, 'comparison.advice_saved', 'comparison', comparisonId);
 	});
 }
 
 /** Publish the report: from now on the project's clients see it, and each gets an e-mail. */
 export async function publishReport(scope: Scope, comparisonId: number): Promise<{ notified: number }> {
 	return transaction(async (trx) => {
-		const c = await trx('comparisons as cm')
-			.join('rooms as r', 'r.id', 'cm.room_id')
-			.join('projects as p', 'p.id', 'r.project_id')
-			.where('cm.id', comparisonId)
-			.forUpdate()
-			.first('cm.id', 'cm.title', 'cm.published_at', 'r.name as room_name', 'p.id as project_id', 'p.name as project_name');
-		if (c.published_at) return { notified: 0 }; // already published: no second round of mail
-		await trx('comparisons').where({ id: comparisonId }).update({ published_at: trx.raw('CURRENT_TIMESTAMP(3)'), published_by: scope.user.id });
-		const clients = await trx('project_members as pm').join('users as u', 'u.id', 'pm.user_id').where('pm.project_id', c.project_id).select('u.email', 'u.name');
+		const c = (await lockComparisonToPublish(trx, comparisonId))!;
+		if (c.publishedAt) return { notified: 0 }; // already published: no second round of mail
+		await markPublished(trx, comparisonId, scope.user.id);
+		const clients = await listProjectClients(trx, c.projectId);
 		for (const client of clients) {
-			const mail = reportPublishedMail({ clientName: client.name, roomName: c.room_name, title: c.title, link: `${config().PUBLIC_BASE_URL}/reports/${comparisonId}` });
+			const mail = reportPublishedMail({ clientName: client.name, roomName: c.roomName, title: c.title, link: `${config().PUBLIC_BASE_URL}/reports/${comparisonId}` });
 			await enqueueMail(trx, { to: client.email, kind: 'report-published', ...mail });
 		}
-		await recordAudit(trx, { organizationId: scope.organizationId, userId: scope.user.id, action: 'comparison.published', entityType: 'comparison', entityId: comparisonId, details: { notified: clients.length } });
+		await audit(trx, scope, 'comparison.published', 'comparison', comparisonId, { notified: clients.length });
 		return { notified: clients.length };
 	});
 }

@@ -1,5 +1,4 @@
 import { authorize } from '$lib/server/auth/access';
-import { db } from '$lib/server/db';
 import { loadComparisonPage } from '$lib/server/results/comparison-page';
 import type { PageServerLoad } from './$types';
 
@@ -7,5 +6,5 @@ import type { PageServerLoad } from './$types';
 export const load = (async ({ locals, params }) => {
 	const comparisonId = Number(params.comparisonId);
 	const scope = await authorize(locals, 'project:read', { comparisonId });
-	return loadComparisonPage(db(), scope, comparisonId, { withPlan: true });
+	return loadComparisonPage(scope, comparisonId, { withPlan: true });
 }) satisfies PageServerLoad;

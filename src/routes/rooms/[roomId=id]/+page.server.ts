@@ -1,44 +1,23 @@
-import { error, redirect } from '@sveltejs/kit';
-import { authorize } from '$lib/server/auth/access';
-import { db } from '$lib/server/db';
-import { parseForm } from '$lib/server/forms';
-import { getProject } from '$lib/server/queries/projects';
-import { getRoom, updateRoom } from '$lib/server/queries/rooms';
-import { createSession, listSessions } from '$lib/server/queries/sessions';
-import { recordAudit } from '$lib/server/audit';
-import { transaction } from '$lib/server/transaction';
-import { roomSchema, sessionSchema } from '$lib/schemas/projects';
-import { roleAllows } from '$lib/roles';
-import { listComparisons, listProblemBands, getProblemBand } from '$lib/server/queries/reviews';
-import { addProblemBand, removeProblemBand, setProblemBandStatus, startComparison } from '$lib/server/reviews';
-import { comparisonSchema, problemBandSchema, problemBandStatusSchema } from '$lib/schemas/reviews';
-import { formFail, problemToFailure } from '$lib/server/forms';
+import { redirect } from '@sveltejs/kit';
 import { z } from 'zod';
+import { authorize } from '$lib/server/auth/access';
+import { formAction } from '$lib/server/forms';
+import * as projects from '$lib/server/projects/service';
+import * as reviews from '$lib/server/reviews/service';
+import { roomSchema, sessionSchema } from '$lib/schemas/projects';
+import { comparisonSchema, problemBandSchema, problemBandStatusSchema } from '$lib/schemas/reviews';
+import { roleAllows } from '$lib/roles';
 import type { Actions, PageServerLoad } from './$types';
 
-const bandIdSchema = z.object({ bandId: z.coerce.number().int().positive() });
-
-/** The problem band a form names, if it belongs to this room. */
-async function bandOfRoom(form: FormData, roomId: number) {
-	const ids = bandIdSchema.safeParse(Object.fromEntries(form));
-	if (!ids.success) return null;
-	const band = await getProblemBand(db(), ids.data.bandId);
-	return band && band.roomId === roomId ? band : null;
-}
+const bandId = z.coerce.number({ error: 'Say which problem band.' }).int().positive({ error: 'Say which problem band.' });
+const bandStatusSchema = problemBandStatusSchema.extend({ bandId });
+const bandSchema = z.object({ bandId });
 
 export const load = (async ({ locals, params }) => {
 	const roomId = Number(params.roomId);
 	const scope = await authorize(locals, 'project:read', { roomId });
-	const k = db();
-	const room = await getRoom(k, roomId);
-	if (!room) error(404, 'Not found.');
-	const project = await getProject(k, room.projectId);
 	return {
-		room,
-		project: { id: project!.id, name: project!.name },
-		sessions: await listSessions(k, roomId),
-		comparisons: await listComparisons(k, roomId, !roleAllows(scope.role, 'project:internal')),
-		problemBands: await listProblemBands(k, roomId),
+		...(await projects.roomOverview(scope, roomId)),
 		can: { edit: roleAllows(scope.role, 'project:edit'), review: roleAllows(scope.role, 'review:write'), internal: roleAllows(scope.role, 'project:internal') }
 	};
 }) satisfies PageServerLoad;
@@ -47,73 +26,54 @@ export const actions = {
 	update: async ({ locals, params, request }) => {
 		const roomId = Number(params.roomId);
 		const scope = await authorize(locals, 'project:edit', { roomId });
-		const parsed = parseForm(roomSchema, await request.formData());
-		if (!parsed.ok) return parsed.failure;
-		await transaction(async (trx) => {
-			await updateRoom(trx, roomId, parsed.data);
-			await recordAudit(trx, { organizationId: scope.organizationId, userId: scope.user.id, action: 'room.updated', entityType: 'room', entityId: roomId });
+		return formAction(request, roomSchema, async (input) => {
+			await projects.updateRoom(scope, roomId, input);
+			return { updated: true };
 		});
-		return { updated: true };
 	},
 
 	createSession: async ({ locals, params, request }) => {
 		const roomId = Number(params.roomId);
 		const scope = await authorize(locals, 'project:edit', { roomId });
-		const parsed = parseForm(sessionSchema, await request.formData());
-		if (!parsed.ok) return parsed.failure;
-		const id = await transaction(async (trx) => {
-			const id = await createSession(trx, roomId, { ...parsed.data, acousticianId: scope.role === 'acoustician' ? scope.user.id : null });
-			await recordAudit(trx, { organizationId: scope.organizationId, userId: scope.user.id, action: 'session.created', entityType: 'session', entityId: id });
-			return id;
+		return formAction(request, sessionSchema, async (input) => {
+			const id = await projects.createSession(scope, roomId, input);
+			redirect(303, `/sessions/${id}`);
 		});
-		redirect(303, `/sessions/${id}`);
 	},
 
 	createComparison: async ({ locals, params, request }) => {
 		const roomId = Number(params.roomId);
 		const scope = await authorize(locals, 'review:write', { roomId });
-		const form = await request.formData();
-		const parsed = parseForm(comparisonSchema, form);
-		if (!parsed.ok) return parsed.failure;
-		try {
-			const id = await startComparison(db(), scope, roomId, parsed.data);
+		return formAction(request, comparisonSchema, async (input) => {
+			const id = await reviews.startComparison(scope, roomId, input);
 			redirect(303, `/comparisons/${id}`);
-		} catch (e) {
-			return problemToFailure(e, form);
-		}
+		});
 	},
 
 	addProblemBand: async ({ locals, params, request }) => {
 		const roomId = Number(params.roomId);
 		const scope = await authorize(locals, 'review:write', { roomId });
-		const form = await request.formData();
-		const parsed = parseForm(problemBandSchema, form);
-		if (!parsed.ok) return parsed.failure;
-		try {
-			await addProblemBand(scope, roomId, parsed.data);
-		} catch (e) {
-			return problemToFailure(e, form);
-		}
-		return { bandAdded: true };
+		return formAction(request, problemBandSchema, async (input) => {
+			await reviews.addProblemBand(scope, roomId, input);
+			return { bandAdded: true };
+		});
 	},
 
 	setBandStatus: async ({ locals, params, request }) => {
-		const scope = await authorize(locals, 'review:write', { roomId: Number(params.roomId) });
-		const form = await request.formData();
-		const band = await bandOfRoom(form, Number(params.roomId));
-		if (!band) return formFail(404, form, 'No such problem band in this room.');
-		const parsed = parseForm(problemBandStatusSchema, form);
-		if (!parsed.ok) return parsed.failure;
-		await setProblemBandStatus(scope, band.id, parsed.data.status);
-		return { bandUpdated: true };
+		const roomId = Number(params.roomId);
+		const scope = await authorize(locals, 'review:write', { roomId });
+		return formAction(request, bandStatusSchema, async (input) => {
+			await reviews.setProblemBandStatus(scope, roomId, input.bandId, input.status);
+			return { bandUpdated: true };
+		});
 	},
 
 	deleteBand: async ({ locals, params, request }) => {
-		const scope = await authorize(locals, 'review:write', { roomId: Number(params.roomId) });
-		const form = await request.formData();
-		const band = await bandOfRoom(form, Number(params.roomId));
-		if (!band) return formFail(404, form, 'No such problem band in this room.');
-		await removeProblemBand(scope, band.id);
-		return { bandDeleted: true };
+		const roomId = Number(params.roomId);
+		const scope = await authorize(locals, 'review:write', { roomId });
+		return formAction(request, bandSchema, async (input) => {
+			await reviews.removeProblemBand(scope, roomId, input.bandId);
+			return { bandDeleted: true };
+		});
 	}
 } satisfies Actions;

@@ -1,6 +1,5 @@
 import { json } from '@sveltejs/kit';
 import { authorize } from '$lib/server/auth/access';
-import { db } from '$lib/server/db';
 import { loadComparisonPage } from '$lib/server/results/comparison-page';
 import type { RequestHandler } from './$types';
 
@@ -8,6 +7,6 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = async ({ locals, params }) => {
 	const comparisonId = Number(params.comparisonId);
 	const scope = await authorize(locals, 'project:read', { comparisonId });
-	const page = await loadComparisonPage(db(), scope, comparisonId, { positionCurves: true });
+	const page = await loadComparisonPage(scope, comparisonId, { positionCurves: true });
 	return json({ comparison: page.comparison, room: page.room, model: page.model, problemBands: page.problemBands });
 };

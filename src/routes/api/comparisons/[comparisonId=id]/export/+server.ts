@@ -1,5 +1,4 @@
 import { authorize } from '$lib/server/auth/access';
-import { db } from '$lib/server/db';
 import { download, exportFormat } from '$lib/server/exports';
 import { loadComparisonPage } from '$lib/server/results/comparison-page';
 import { comparisonCsv, comparisonJson } from '$lib/results/exports';
@@ -10,6 +9,6 @@ export const GET: RequestHandler = async ({ locals, params, url }) => {
 	const comparisonId = Number(params.comparisonId);
 	const scope = await authorize(locals, 'project:read', { comparisonId });
 	const format = exportFormat(url);
-	const page = await loadComparisonPage(db(), scope, comparisonId, { positionCurves: true });
+	const page = await loadComparisonPage(scope, comparisonId, { positionCurves: true });
 	return download(format, `${page.room.name}-comparison`, () => comparisonCsv(page.model), () => comparisonJson(page.model));
 };
