@@ -1,6 +1,8 @@
 // A room's plan loaded and worked through, for the plan page, the build page, the JSON route
 // and the client report.
 import type { Knex } from 'knex';
+import { db } from '../db';
+import type { Scope } from '../auth/access';
 import { defaultTarget } from '../../results/comparison';
 import type { SessionSummary } from '../../results/types';
 import { PLANNING_BANDS_HZ } from '../../treatment/bands';
@@ -9,6 +11,9 @@ import { measuredTimes, type MeasuredTimes } from '../../plans/measured';
 import { planBuilds, planCost, planCutList, type ItemBuild, type PlanCost, type PlanCutList } from '../../plans/build';
 import type { StoredPlan } from '../../plans/types';
 import { getRoom, type RoomRow } from '../queries/rooms';
+import { getProject } from '../queries/projects';
+import { listProblemBands } from '../queries/reviews';
+import { listSessions } from '../queries/sessions';
 import { listCustomMaterials, loadStoredPlan, materialCatalogue, type CustomMaterialRow } from '../queries/plans';
 import { loadSessionSummary } from '../results/load';
 
@@ -64,4 +69,23 @@ export async function loadPlanView(k: Knex, roomId: number, organizationId: numb
 	const { builds, errors } = planBuilds(plan.items);
 	const cut = planCutList(builds, plan.stock, plan.settings.kerfMm);
 	return { room, plan, customMaterials, before, after, evaluation, builds, buildErrors: errors, cut, cost: planCost(plan.items, plan.stock, cut) };
+}
+
+/** The room's plan worked through, with the organization's own materials. */
+export function loadRoomPlan(scope: Scope, roomId: number): Promise<PlanView> {
+	return loadPlanView(db(), roomId, scope.organizationId);
+}
+
+/** The plan with the project it belongs to, for a plan page's crumbs. */
+export async function loadPlanPage(scope: Scope, roomId: number): Promise<{ project: { id: number; name: string }; view: PlanView }> {
+	const view = await loadRoomPlan(scope, roomId);
+	const project = (await getProject(db(), view.room.projectId))!;
+	return { project: { id: project.id, name: project.name }, view };
+}
+
+/** What a plan can start from: the room's visits (to calibrate and check) and its problem bands. */
+export async function loadPlanningChoices(roomId: number) {
+	const k = db();
+	const [sessions, problemBands] = await Promise.all([listSessions(k, roomId), listProblemBands(k, roomId)]);
+	return { sessions, problemBands };
 }

@@ -3,14 +3,19 @@
 // would leave the plan impossible (items larger than their wall, a frame too small to build,
 // an opening that does not fit) is refused with the reason, and nothing is written.
 import type { Knex } from 'knex';
-import { recordAudit } from '../audit';
-import { isDuplicateKey, isStillReferenced } from '../db-errors';
+import { audit } from '../audit';
+import { mapDbErrors } from '../db-errors';
 import { transaction } from '../transaction';
-import { Problem } from '../problem';
+import { invalid, notFound } from '../problem';
 import type { Scope } from '../auth/access';
-import { getRoom } from '../queries/rooms';
+import { areVisitsOfRoom, getRoom } from '../queries/rooms';
+import { isProblemBandOfRoom } from '../queries/reviews';
 import {
 	createCustomMaterial,
+	deleteCustomMaterial,
+	deleteItem,
+	deleteOpening,
+	deleteStock,
 	ensurePlan,
 	getCustomMaterial,
 	insertItem,
@@ -19,6 +24,7 @@ import {
 	listCustomMaterials,
 	loadStoredPlan,
 	materialCatalogue,
+	planOfItem,
 	setSurfaceFinish,
 	updateItem,
 	updatePlanSettings
@@ -31,12 +37,7 @@ import type { PlanItem, PlanOpening, PlanSettings, StockSheetRow, StoredPlan } f
 import type { SurfaceId } from '../../treatment/surfaces';
 import { TABLE_BANDS_HZ } from '../../treatment/bands';
 
-
 type ItemInput = Omit<PlanItem, 'id'>;
-
-function audit(trx: Knex, scope: Scope, action: string, entityType: string, entityId: number | null, details?: Record<string, unknown>) {
-	return recordAudit(trx, { organizationId: scope.organizationId, userId: scope.user.id, action, entityType, entityId, details });
-}
 
 /** A finish the user picked: a built-in material, or one of this organization's own. */
 async function resolveMaterialKey(k: Knex, organizationId: number, key: string, field = 'materialKey') {
@@ -45,7 +46,7 @@ async function resolveMaterialKey(k: Knex, organizationId: number, key: string, 
 		const m = await getCustomMaterial(k, parsed.customId);
 		if (m && m.organizationId === organizationId) return parsed;
 	} else if (parsed) return parsed;
-	throw new Problem(400, 'Pick a material from the list.', { field });
+	throw invalid('Pick a material from the list.', field);
 }
 
 /** Refuses the change when the plan it leads to cannot be worked out; the reason goes to the user. */
@@ -60,16 +61,14 @@ async function assertWorkable(trx: Knex, scope: Scope, roomId: number, plan: Sto
 		measuredAfterS: null,
 		target: []
 	});
-	if (evaluation.problems.length > 0) throw new Problem(400, capitalise(evaluation.problems[0]), { field });
+	if (evaluation.problems.length > 0) throw invalid(capitalise(evaluation.problems[0]), field);
 }
 
 const capitalise = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
 
 async function checkSessionsOfRoom(trx: Knex, roomId: number, ids: (number | null)[]): Promise<void> {
 	const wanted = ids.filter((id): id is number => id !== null);
-	if (wanted.length === 0) return;
-	const found = await trx('sessions').whereIn('id', wanted).where({ room_id: roomId }).select('id');
-	if (found.length !== new Set(wanted).size) throw new Problem(400, 'Pick visits of this room.', { field: 'baselineSessionId' });
+	if (!(await areVisitsOfRoom(trx, roomId, wanted))) throw invalid('Pick visits of this room.', 'baselineSessionId');
 }
 
 /** Saves the settings a form carries; the others keep their stored values. */
@@ -78,7 +77,7 @@ export async function savePlanSettings(scope: Scope, roomId: number, changes: Pa
 		const planId = await ensurePlan(trx, roomId, scope.user.id);
 		const settings = { ...(await loadStoredPlan(trx, roomId)).settings, ...changes };
 		if (settings.baselineSessionId !== null && settings.baselineSessionId === settings.afterSessionId) {
-			throw new Problem(400, 'The visit after treatment must be another visit than the one before.', { field: 'afterSessionId' });
+			throw invalid('The visit after treatment must be another visit than the one before.', 'afterSessionId');
 		}
 		await checkSessionsOfRoom(trx, roomId, [settings.baselineSessionId, settings.afterSessionId]);
 		await updatePlanSettings(trx, planId, settings, scope.user.id);
@@ -110,8 +109,7 @@ export async function addOpening(scope: Scope, roomId: number, opening: Omit<Pla
 export async function removeOpening(scope: Scope, roomId: number, openingId: number): Promise<void> {
 	await transaction(async (trx) => {
 		const planId = await ensurePlan(trx, roomId, scope.user.id);
-		const removed = await trx('room_openings').where({ id: openingId, room_id: roomId }).del();
-		if (removed === 0) throw new Problem(404, 'No such opening in this room.');
+		if ((await deleteOpening(trx, roomId, openingId)) === 0) throw notFound('No such opening in this room.');
 		await audit(trx, scope, 'plan.opening_removed', 'treatment_plan', planId, { openingId });
 	});
 }
@@ -122,9 +120,7 @@ function normalisedItem(item: ItemInput): ItemInput {
 }
 
 async function checkProblemBand(trx: Knex, roomId: number, bandId: number | null): Promise<void> {
-	if (bandId === null) return;
-	const band = await trx('problem_bands').where({ id: bandId, room_id: roomId }).first('id');
-	if (!band) throw new Problem(400, 'That problem band is of another room.', { field: 'problemBandId' });
+	if (bandId !== null && !(await isProblemBandOfRoom(trx, bandId, roomId))) throw invalid('That problem band is of another room.', 'problemBandId');
 }
 
 /** The item must be buildable as sized (a frame wider than the panel is not). */
@@ -132,7 +128,7 @@ function checkBuildable(item: ItemInput): void {
 	try {
 		itemBuild({ ...item, id: 0 });
 	} catch (e) {
-		throw new Problem(400, `This item cannot be built as sized: ${(e as Error).message}.`, { field: 'widthMm' });
+		throw invalid(`This item cannot be built as sized: ${(e as Error).message}.`, 'widthMm');
 	}
 }
 
@@ -150,10 +146,8 @@ export async function addItem(scope: Scope, roomId: number, input: ItemInput): P
 	});
 }
 
-async function itemOfRoom(trx: Knex, roomId: number, itemId: number): Promise<number> {
-	const row = await trx('treatment_items as i').join('treatment_plans as p', 'p.id', 'i.plan_id').where({ 'i.id': itemId, 'p.room_id': roomId }).first('p.id as planId');
-	if (!row) throw new Problem(404, 'No such item in this plan.');
-	return row.planId;
+async function checkItemOfRoom(trx: Knex, roomId: number, itemId: number): Promise<void> {
+	if ((await planOfItem(trx, roomId, itemId)) === undefined) throw notFound('No such item in this plan.');
 }
 
 export async function changeItem(scope: Scope, roomId: number, itemId: number, input: ItemInput): Promise<void> {
@@ -161,7 +155,7 @@ export async function changeItem(scope: Scope, roomId: number, itemId: number, i
 	checkBuildable(item);
 	await transaction(async (trx) => {
 		await ensurePlan(trx, roomId, scope.user.id);
-		await itemOfRoom(trx, roomId, itemId);
+		await checkItemOfRoom(trx, roomId, itemId);
 		await checkProblemBand(trx, roomId, item.problemBandId);
 		const plan = await loadStoredPlan(trx, roomId);
 		await assertWorkable(trx, scope, roomId, { ...plan, items: plan.items.map((i) => (i.id === itemId ? { ...item, id: itemId } : i)) }, 'quantity');
@@ -173,8 +167,8 @@ export async function changeItem(scope: Scope, roomId: number, itemId: number, i
 export async function removeItem(scope: Scope, roomId: number, itemId: number): Promise<void> {
 	await transaction(async (trx) => {
 		await ensurePlan(trx, roomId, scope.user.id);
-		await itemOfRoom(trx, roomId, itemId);
-		await trx('treatment_items').where({ id: itemId }).del();
+		await checkItemOfRoom(trx, roomId, itemId);
+		await deleteItem(trx, itemId);
 		await audit(trx, scope, 'plan.item_removed', 'treatment_item', itemId);
 	});
 }
@@ -182,50 +176,34 @@ export async function removeItem(scope: Scope, roomId: number, itemId: number): 
 export async function addStock(scope: Scope, roomId: number, stock: Omit<StockSheetRow, 'id'>): Promise<number> {
 	return transaction(async (trx) => {
 		const planId = await ensurePlan(trx, roomId, scope.user.id);
-		try {
-			const id = await insertStock(trx, planId, stock);
-			await audit(trx, scope, 'plan.stock_added', 'treatment_plan', planId, { label: stock.label });
-			return id;
-		} catch (e) {
-			if (isDuplicateKey(e)) throw new Problem(409, `A sheet called "${stock.label}" is already on the list.`, { field: 'label' });
-			throw e;
-		}
+		const id = await mapDbErrors(insertStock(trx, planId, stock), { duplicate: `A sheet called "${stock.label}" is already on the list.`, field: 'label' });
+		await audit(trx, scope, 'plan.stock_added', 'treatment_plan', planId, { label: stock.label });
+		return id;
 	});
 }
 
 export async function removeStock(scope: Scope, roomId: number, stockId: number): Promise<void> {
 	await transaction(async (trx) => {
 		const planId = await ensurePlan(trx, roomId, scope.user.id);
-		const removed = await trx('stock_sheets').where({ id: stockId, plan_id: planId }).del();
-		if (removed === 0) throw new Problem(404, 'No such sheet on this plan.');
+		if ((await deleteStock(trx, planId, stockId)) === 0) throw notFound('No such sheet on this plan.');
 		await audit(trx, scope, 'plan.stock_removed', 'treatment_plan', planId, { stockId });
 	});
 }
 
 export async function addCustomMaterial(scope: Scope, m: { name: string; source: string; coefficients: number[] }): Promise<number> {
-	if (m.coefficients.length !== TABLE_BANDS_HZ.length) throw new Problem(400, `Give ${TABLE_BANDS_HZ.length} coefficients.`);
+	if (m.coefficients.length !== TABLE_BANDS_HZ.length) throw invalid(`Give ${TABLE_BANDS_HZ.length} coefficients.`);
 	return transaction(async (trx) => {
-		try {
-			const id = await createCustomMaterial(trx, scope.organizationId, m, scope.user.id);
-			await audit(trx, scope, 'material.created', 'custom_material', id, { name: m.name });
-			return id;
-		} catch (e) {
-			if (isDuplicateKey(e)) throw new Problem(409, `The practice already has a material called "${m.name}".`, { field: 'name' });
-			throw e;
-		}
+		const id = await mapDbErrors(createCustomMaterial(trx, scope.organizationId, m, scope.user.id), { duplicate: `The practice already has a material called "${m.name}".`, field: 'name' });
+		await audit(trx, scope, 'material.created', 'custom_material', id, { name: m.name });
+		return id;
 	});
 }
 
 export async function removeCustomMaterial(scope: Scope, materialId: number): Promise<void> {
 	await transaction(async (trx) => {
 		const m = await getCustomMaterial(trx, materialId);
-		if (!m || m.organizationId !== scope.organizationId) throw new Problem(404, 'No such material.');
-		try {
-			await trx('custom_materials').where({ id: materialId }).del();
-		} catch (e) {
-			if (isStillReferenced(e)) throw new Problem(409, 'This material is the finish of a surface or opening; give those another finish first.');
-			throw e;
-		}
+		if (!m || m.organizationId !== scope.organizationId) throw notFound('No such material.');
+		await mapDbErrors(deleteCustomMaterial(trx, materialId), { referenced: 'This material is the finish of a surface or opening; give those another finish first.' });
 		await audit(trx, scope, 'material.deleted', 'custom_material', materialId);
 	});
 }

@@ -10,3 +10,8 @@ export function planUnit(source: URLSearchParams | FormData, scope: Pick<Scope, 
 	if (asked === 'mm' || asked === 'in') return asked;
 	return unitOfSystem(scope.user.unitSystem);
 }
+
+/** A form schema in the unit the submitted form was in. */
+export function inFormUnit<S>(scope: Pick<Scope, 'user'>, schemaOf: (unit: LengthUnit) => S): (form: FormData) => S {
+	return (form) => schemaOf(planUnit(form, scope));
+}

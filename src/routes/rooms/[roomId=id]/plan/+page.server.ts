@@ -1,25 +1,10 @@
 import { authorize, type Scope } from '$lib/server/auth/access';
-import { db } from '$lib/server/db';
-import { formFail, parseForm } from '$lib/server/forms';
-import { getProject } from '$lib/server/queries/projects';
-import { listSessions } from '$lib/server/queries/sessions';
-import { listProblemBands } from '$lib/server/queries/reviews';
-import { loadPlanView } from '$lib/server/plans/load';
-import {
-	addCustomMaterial,
-	addItem,
-	addOpening,
-	changeItem,
-	removeCustomMaterial,
-	removeItem,
-	removeOpening,
-	savePlanSettings,
-	setFinish
-} from '$lib/server/plans/service';
-import { planUnit } from '$lib/server/plans/units';
-import { planChange } from '$lib/server/plans/actions';
+import { loadPlanningChoices, loadPlanPage } from '$lib/server/plans/load';
+import * as plans from '$lib/server/plans/service';
+import { inFormUnit, planUnit } from '$lib/server/plans/units';
+import { idIn, planChange, planRemoval } from '$lib/server/plans/actions';
 import { proposalsForBand } from '$lib/plans/proposals';
-import { coefficientsOf, customMaterialSchema, finishFormSchema, idFieldSchema, itemFormSchema, openingFormSchema, planSettingsSchema } from '$lib/schemas/treatment';
+import { coefficientsOf, customMaterialSchema, finishFormSchema, itemFormSchema, openingFormSchema, planSettingsSchema } from '$lib/schemas/treatment';
 import { MATERIALS } from '$lib/treatment/materials';
 import { roleAllows } from '$lib/roles';
 import type { Actions, PageServerLoad } from './$types';
@@ -27,13 +12,11 @@ import type { Actions, PageServerLoad } from './$types';
 export const load = (async ({ locals, params, url }) => {
 	const roomId = Number(params.roomId);
 	const scope = await authorize(locals, 'project:internal', { roomId });
-	const k = db();
-	const [view, sessions, problemBands] = await Promise.all([loadPlanView(k, roomId, scope.organizationId), listSessions(k, roomId), listProblemBands(k, roomId)]);
-	const project = (await getProject(k, view.room.projectId))!;
+	const [{ project, view }, { sessions, problemBands }] = await Promise.all([loadPlanPage(scope, roomId), loadPlanningChoices(roomId)]);
 	const bandId = Number(url.searchParams.get('band'));
 	const band = Number.isInteger(bandId) && bandId > 0 ? problemBands.find((b) => b.id === bandId) : undefined;
 	return {
-		project: { id: project.id, name: project.name },
+		project,
 		view,
 		sessions: sessions.map((s) => ({ id: s.id, label: `${s.conditionLabel} — ${s.measuredOn}` })),
 		problemBands,
@@ -52,84 +35,50 @@ async function editor(locals: App.Locals, params: { roomId: string }): Promise<{
 	return { scope: await authorize(locals, 'review:write', { roomId }), roomId };
 }
 
-function idOf(form: FormData, name: string): number | null {
-	const parsed = idFieldSchema(name).safeParse(Object.fromEntries(form));
-	return parsed.success ? (parsed.data[name] as number) : null;
-}
-
 export const actions = {
 	saveSettings: async ({ locals, params, request }) => {
 		const { scope, roomId } = await editor(locals, params);
-		const form = await request.formData();
-		const parsed = parseForm(planSettingsSchema(planUnit(form, scope)).omit({ kerfMm: true }), form);
-		if (!parsed.ok) return parsed.failure;
-		return planChange(form, () => savePlanSettings(scope, roomId, parsed.data), 'settings');
+		const schema = inFormUnit(scope, (unit) => planSettingsSchema(unit).omit({ kerfMm: true }));
+		return planChange(request, schema, 'settings', (input) => plans.savePlanSettings(scope, roomId, input));
 	},
 
 	setFinish: async ({ locals, params, request }) => {
 		const { scope, roomId } = await editor(locals, params);
-		const form = await request.formData();
-		const parsed = parseForm(finishFormSchema, form);
-		if (!parsed.ok) return parsed.failure;
-		return planChange(form, () => setFinish(scope, roomId, parsed.data.surface, parsed.data.materialKey), 'finish');
+		return planChange(request, finishFormSchema, 'finish', (input) => plans.setFinish(scope, roomId, input.surface, input.materialKey));
 	},
 
 	addOpening: async ({ locals, params, request }) => {
 		const { scope, roomId } = await editor(locals, params);
-		const form = await request.formData();
-		const parsed = parseForm(openingFormSchema(planUnit(form, scope)), form);
-		if (!parsed.ok) return parsed.failure;
-		return planChange(form, () => addOpening(scope, roomId, parsed.data), 'opening');
+		return planChange(request, inFormUnit(scope, openingFormSchema), 'opening', (input) => plans.addOpening(scope, roomId, input));
 	},
 
 	removeOpening: async ({ locals, params, request }) => {
 		const { scope, roomId } = await editor(locals, params);
-		const form = await request.formData();
-		const id = idOf(form, 'openingId');
-		if (id === null) return formFail(400, form, 'Say which opening to remove.');
-		return planChange(form, () => removeOpening(scope, roomId, id), 'opening-removed');
+		return planRemoval(request, 'opening-removed', 'openingId', 'Say which opening to remove.', (id) => plans.removeOpening(scope, roomId, id));
 	},
 
 	addMaterial: async ({ locals, params, request }) => {
 		const { scope } = await editor(locals, params);
-		const form = await request.formData();
-		const parsed = parseForm(customMaterialSchema, form);
-		if (!parsed.ok) return parsed.failure;
-		const m = parsed.data;
-		return planChange(form, () => addCustomMaterial(scope, { name: m.name, source: m.source, coefficients: coefficientsOf(m) }), 'material');
+		return planChange(request, customMaterialSchema, 'material', (m) => plans.addCustomMaterial(scope, { name: m.name, source: m.source, coefficients: coefficientsOf(m) }));
 	},
 
 	removeMaterial: async ({ locals, params, request }) => {
 		const { scope } = await editor(locals, params);
-		const form = await request.formData();
-		const id = idOf(form, 'materialId');
-		if (id === null) return formFail(400, form, 'Say which material to remove.');
-		return planChange(form, () => removeCustomMaterial(scope, id), 'material-removed');
+		return planRemoval(request, 'material-removed', 'materialId', 'Say which material to remove.', (id) => plans.removeCustomMaterial(scope, id));
 	},
 
 	addItem: async ({ locals, params, request }) => {
 		const { scope, roomId } = await editor(locals, params);
-		const form = await request.formData();
-		const parsed = parseForm(itemFormSchema(planUnit(form, scope)), form);
-		if (!parsed.ok) return parsed.failure;
-		return planChange(form, () => addItem(scope, roomId, parsed.data), 'item');
+		return planChange(request, inFormUnit(scope, itemFormSchema), 'item', (input) => plans.addItem(scope, roomId, input));
 	},
 
 	updateItem: async ({ locals, params, request }) => {
 		const { scope, roomId } = await editor(locals, params);
-		const form = await request.formData();
-		const id = idOf(form, 'itemId');
-		if (id === null) return formFail(400, form, 'Say which item to change.');
-		const parsed = parseForm(itemFormSchema(planUnit(form, scope)), form);
-		if (!parsed.ok) return parsed.failure;
-		return planChange(form, () => changeItem(scope, roomId, id, parsed.data), 'item');
+		return planChange(request, inFormUnit(scope, itemFormSchema), 'item', (input, form) => plans.changeItem(scope, roomId, idIn(form, 'itemId', 'Say which item to change.'), input));
 	},
 
 	removeItem: async ({ locals, params, request }) => {
 		const { scope, roomId } = await editor(locals, params);
-		const form = await request.formData();
-		const id = idOf(form, 'itemId');
-		if (id === null) return formFail(400, form, 'Say which item to remove.');
-		return planChange(form, () => removeItem(scope, roomId, id), 'item-removed');
+		return planRemoval(request, 'item-removed', 'itemId', 'Say which item to remove.', (id) => plans.removeItem(scope, roomId, id));
 	}
 } satisfies Actions;

@@ -1,24 +1,19 @@
 import { authorize } from '$lib/server/auth/access';
-import { db } from '$lib/server/db';
-import { formFail, parseForm } from '$lib/server/forms';
-import { getProject } from '$lib/server/queries/projects';
-import { loadPlanView } from '$lib/server/plans/load';
-import { addStock, removeStock, savePlanSettings } from '$lib/server/plans/service';
-import { planChange } from '$lib/server/plans/actions';
-import { planUnit } from '$lib/server/plans/units';
+import { loadPlanPage } from '$lib/server/plans/load';
+import * as plans from '$lib/server/plans/service';
+import { planChange, planRemoval } from '$lib/server/plans/actions';
+import { inFormUnit, planUnit } from '$lib/server/plans/units';
 import { missingStock, separateParts } from '$lib/plans/build';
-import { idFieldSchema, planSettingsSchema, stockFormSchema } from '$lib/schemas/treatment';
+import { planSettingsSchema, stockFormSchema } from '$lib/schemas/treatment';
 import { roleAllows } from '$lib/roles';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load = (async ({ locals, params, url }) => {
 	const roomId = Number(params.roomId);
 	const scope = await authorize(locals, 'project:internal', { roomId });
-	const k = db();
-	const view = await loadPlanView(k, roomId, scope.organizationId);
-	const project = (await getProject(k, view.room.projectId))!;
+	const { project, view } = await loadPlanPage(scope, roomId);
 	return {
-		project: { id: project.id, name: project.name },
+		project,
 		room: view.room,
 		plan: view.plan,
 		builds: view.builds,
@@ -37,27 +32,19 @@ export const actions = {
 	addStock: async ({ locals, params, request }) => {
 		const roomId = Number(params.roomId);
 		const scope = await authorize(locals, 'review:write', { roomId });
-		const form = await request.formData();
-		const parsed = parseForm(stockFormSchema(planUnit(form, scope)), form);
-		if (!parsed.ok) return parsed.failure;
-		return planChange(form, () => addStock(scope, roomId, parsed.data), 'stock');
+		return planChange(request, inFormUnit(scope, stockFormSchema), 'stock', (input) => plans.addStock(scope, roomId, input));
 	},
 
 	removeStock: async ({ locals, params, request }) => {
 		const roomId = Number(params.roomId);
 		const scope = await authorize(locals, 'review:write', { roomId });
-		const form = await request.formData();
-		const parsed = idFieldSchema('stockId').safeParse(Object.fromEntries(form));
-		if (!parsed.success) return formFail(400, form, 'Say which sheet to remove.');
-		return planChange(form, () => removeStock(scope, roomId, parsed.data.stockId as number), 'stock-removed');
+		return planRemoval(request, 'stock-removed', 'stockId', 'Say which sheet to remove.', (id) => plans.removeStock(scope, roomId, id));
 	},
 
 	saveKerf: async ({ locals, params, request }) => {
 		const roomId = Number(params.roomId);
 		const scope = await authorize(locals, 'review:write', { roomId });
-		const form = await request.formData();
-		const parsed = parseForm(planSettingsSchema(planUnit(form, scope)).pick({ kerfMm: true }), form);
-		if (!parsed.ok) return parsed.failure;
-		return planChange(form, () => savePlanSettings(scope, roomId, parsed.data), 'kerf');
+		const schema = inFormUnit(scope, (unit) => planSettingsSchema(unit).pick({ kerfMm: true }));
+		return planChange(request, schema, 'kerf', (input) => plans.savePlanSettings(scope, roomId, input));
 	}
 } satisfies Actions;

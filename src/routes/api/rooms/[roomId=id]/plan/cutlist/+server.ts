@@ -1,7 +1,6 @@
 import { authorize } from '$lib/server/auth/access';
-import { db } from '$lib/server/db';
 import { download, exportFormat } from '$lib/server/exports';
-import { loadPlanView } from '$lib/server/plans/load';
+import { loadRoomPlan } from '$lib/server/plans/load';
 import { planUnit } from '$lib/server/plans/units';
 import { separateParts } from '$lib/plans/build';
 import { CUT_LIST_SCHEMA, cutListCsv, cutPieceRows } from '$lib/plans/exports';
@@ -12,7 +11,7 @@ export const GET: RequestHandler = async ({ locals, params, url }) => {
 	const roomId = Number(params.roomId);
 	const scope = await authorize(locals, 'project:internal', { roomId });
 	const format = exportFormat(url);
-	const view = await loadPlanView(db(), roomId, scope.organizationId);
+	const view = await loadRoomPlan(scope, roomId);
 	const rows = cutPieceRows(view.cut.ok ? view.cut.cutList : null, separateParts(view.builds));
 	return download(
 		format,
