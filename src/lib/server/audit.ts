@@ -27,11 +27,3 @@ export async function audit(
 		details: details ? JSON.stringify(details) : null
 	});
 }
-
-/** @deprecated the old spelled-out form; use `audit()`. Kept only while routes move to services. */
-export async function recordAudit(
-	k: Knex,
-	e: { organizationId: number | null; userId: number | null; action: string; entityType: string; entityId: number | null; details?: Record<string, unknown> }
-): Promise<void> {
-	await audit(k, { organizationId: e.organizationId, user: e.userId === null ? null : { id: e.userId } }, e.action, e.entityType, e.entityId, e.details);
-}

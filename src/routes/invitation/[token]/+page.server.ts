@@ -1,7 +1,6 @@
 import { error, redirect } from '@sveltejs/kit';
-import { parseForm, problemToFailure } from '$lib/server/forms';
+import { passwordFormAction } from '$lib/server/people/password-form';
 import * as people from '$lib/server/people/service';
-import { setPasswordSchema } from '$lib/schemas/auth';
 import { ROLE_LABELS } from '$lib/roles';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -19,19 +18,9 @@ export const load = (async ({ params }) => {
 }) satisfies PageServerLoad;
 
 export const actions = {
-	default: async ({ request, params }) => {
-		// The token comes from the address; the schema checks it with the passwords.
-		const form = await request.formData();
-		form.set('token', params.token);
-		const parsed = parseForm(setPasswordSchema, form);
-		if (!parsed.ok) return parsed.failure;
-		let userId: number | null;
-		try {
-			userId = await people.acceptInvitation(params.token, parsed.data);
-		} catch (e) {
-			return problemToFailure(e, form);
-		}
-		if (userId === null) error(410, GONE);
-		redirect(303, '/signin?reset=1');
-	}
+	default: async ({ request, params }) =>
+		passwordFormAction(request, params.token, async (input) => {
+			if ((await people.acceptInvitation(params.token, input)) === null) error(410, GONE);
+			redirect(303, '/signin?reset=1');
+		})
 } satisfies Actions;
