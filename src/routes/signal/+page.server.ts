@@ -1,8 +1,7 @@
 import { error, redirect } from '@sveltejs/kit';
 import { authorize, membershipsAllowing } from '$lib/server/auth/access';
-import { db } from '$lib/server/db';
-import { parseForm, problemToFailure } from '$lib/server/forms';
-import { createSweep, listSweeps } from '$lib/server/sweeps';
+import { formAction } from '$lib/server/forms';
+import { createSweep, sweepsOf } from '$lib/server/sweeps/service';
 import { sweepDefinitionSchema } from '$lib/schemas/captures';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 
@@ -15,21 +14,15 @@ function organizationOf(event: RequestEvent | Parameters<PageServerLoad>[0]): nu
 export const load = (async (event) => {
 	const organizationId = organizationOf(event);
 	await authorize(event.locals, 'capture:write', { organizationId });
-	return { sweeps: await listSweeps(db(), organizationId) };
+	return { sweeps: await sweepsOf(organizationId) };
 }) satisfies PageServerLoad;
 
 export const actions = {
 	create: async (event) => {
-		const organizationId = organizationOf(event);
-		const scope = await authorize(event.locals, 'capture:write', { organizationId });
-		const form = await event.request.formData();
-		const parsed = parseForm(sweepDefinitionSchema, form);
-		if (!parsed.ok) return parsed.failure;
-		try {
-			await createSweep(scope, parsed.data);
-		} catch (e) {
-			return problemToFailure(e, form);
-		}
-		redirect(303, '/signal?created=1');
+		const scope = await authorize(event.locals, 'capture:write', { organizationId: organizationOf(event) });
+		return formAction(event.request, sweepDefinitionSchema, async (input) => {
+			await createSweep(scope, input);
+			redirect(303, '/signal?created=1');
+		});
 	}
 } satisfies Actions;

@@ -2,6 +2,7 @@
 // them — on one machine or many — share it without taking the same job. A claim is a lease:
 // a worker that dies leaves its job to be claimed again once the lease runs out.
 import type { Knex } from 'knex';
+import { readJson } from '../json-column';
 
 export type JobType = 'analyse-capture';
 
@@ -36,7 +37,10 @@ export async function enqueue(
 	return id;
 }
 
-const parse = (p: unknown) => (typeof p === 'string' ? JSON.parse(p) : p);
+/** Drop the jobs of a capture that have not finished (it is being deleted). */
+export async function cancelCaptureJobs(k: Knex, type: JobType, captureId: number): Promise<void> {
+	await k('jobs').where('type', type).whereIn('status', ['queued', 'running']).whereRaw("JSON_VALUE(payload, '$.captureId') = ?", [captureId]).del();
+}
 
 /**
  * Claim one due job: queued and due, or running with an expired lease (its worker died).
@@ -67,7 +71,7 @@ export async function claim(k: Knex, owner: string, leaseMs = DEFAULT_LEASE_MS):
 		return {
 			id: row.id,
 			type: row.type,
-			payload: parse(row.payload),
+			payload: readJson(row.payload),
 			attempts: row.attempts + 1,
 			maxAttempts: row.max_attempts,
 			leaseOwner: owner

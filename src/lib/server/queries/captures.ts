@@ -1,6 +1,9 @@
 import type { Knex } from 'knex';
+import { PENDING_CAPTURE_STATUSES, type CaptureStatus } from '../../captures/status';
+import { readJson } from '../json-column';
+import { pointOf, type Point } from './positions';
 
-export type CaptureStatus = 'awaiting_upload' | 'queued' | 'analysing' | 'analysed' | 'failed';
+export type { CaptureStatus };
 
 export interface CaptureRow {
 	id: number;
@@ -64,6 +67,153 @@ export async function findDuplicate(k: Knex, sessionId: number, sha256: string):
 export async function analysisSummaries(k: Knex, captureIds: number[]): Promise<Map<number, { engineVersion: string; warnings: unknown[]; metrics: Record<string, unknown> }>> {
 	if (captureIds.length === 0) return new Map();
 	const rows = await k('analyses').whereIn('capture_id', captureIds).select('capture_id', 'engine_version', 'warnings', 'metrics');
-	const parse = (v: unknown) => (typeof v === 'string' ? JSON.parse(v) : v);
-	return new Map(rows.map((r) => [r.capture_id, { engineVersion: r.engine_version, warnings: parse(r.warnings), metrics: parse(r.metrics) }]));
+	return new Map(rows.map((r) => [r.capture_id, { engineVersion: r.engine_version, warnings: readJson<unknown[]>(r.warnings), metrics: readJson<Record<string, unknown>>(r.metrics) }]));
+}
+
+export interface NewCapture {
+	sessionId: number;
+	positionId: number;
+	kind: 'impulse' | 'sweep';
+	filename: string;
+	objectKey: string;
+	referenceObjectKey: string | null;
+	sweepDefinitionId: number | null;
+	sha256: string;
+	sizeBytes: number;
+	channel: number;
+	createdBy: number;
+}
+
+/** A capture announced by the browser, awaiting its upload. */
+export async function insertCapture(k: Knex, c: NewCapture): Promise<number> {
+	const [id] = await k('captures').insert({
+		session_id: c.sessionId,
+		position_id: c.positionId,
+		kind: c.kind,
+		original_filename: c.filename,
+		object_key: c.objectKey,
+		reference_object_key: c.referenceObjectKey,
+		sweep_definition_id: c.sweepDefinitionId,
+		sha256: c.sha256,
+		size_bytes: c.sizeBytes,
+		channel: c.channel,
+		status: 'awaiting_upload',
+		created_by: c.createdBy
+	});
+	return id;
+}
+
+export async function updateCaptureLabels(k: Knex, id: number, changes: { filename?: string; positionId?: number }): Promise<void> {
+	const row: Record<string, unknown> = {};
+	if (changes.filename !== undefined) row.original_filename = changes.filename;
+	if (changes.positionId !== undefined) row.position_id = changes.positionId;
+	if (Object.keys(row).length) await k('captures').where({ id }).update(row);
+}
+
+/** Awaiting upload → queued, with what its header says; false when an earlier request did it. */
+export async function markUploaded(k: Knex, id: number, header: { sampleRate: number; channels: number; durationS: number }): Promise<boolean> {
+	const n = await k('captures')
+		.where({ id, status: 'awaiting_upload' })
+		.update({ status: 'queued', sample_rate: header.sampleRate, channels: header.channels, duration_s: header.durationS, error: null });
+	return n === 1;
+}
+
+/** Analysed or failed → queued again; false for a capture still on its way. */
+export async function requeueSettled(k: Knex, id: number): Promise<boolean> {
+	const n = await k('captures').where({ id }).whereIn('status', ['analysed', 'failed']).update({ status: 'queued', error: null });
+	return n === 1;
+}
+
+export async function deleteCaptureRow(k: Knex, id: number): Promise<void> {
+	await k('captures').where({ id }).del();
+}
+
+export async function captureIdsOfSession(k: Knex, sessionId: number): Promise<number[]> {
+	return (await k('captures').where({ session_id: sessionId }).select('id')).map((r) => r.id as number);
+}
+
+/** Captures still awaiting their upload since before this moment, with their organization. */
+export async function uploadsAwaitingSince(k: Knex, before: Date): Promise<{ id: number; organizationId: number }[]> {
+	return k('captures as c')
+		.join('sessions as se', 'se.id', 'c.session_id')
+		.join('rooms as r', 'r.id', 'se.room_id')
+		.join('projects as p', 'p.id', 'r.project_id')
+		.where('c.status', 'awaiting_upload')
+		.where('c.created_at', '<', before)
+		.select({ id: 'c.id', organizationId: 'p.organization_id' });
+}
+
+/** The analysis has started, or is handed back to the queue after a failure worth retrying. */
+export async function setAnalysisState(k: Knex, id: number, status: 'analysing' | 'queued'): Promise<void> {
+	await k('captures').where({ id }).update({ status });
+}
+
+/** The analysis has run: analysed, or failed with the reason; one more attempt counted. */
+export async function settleAnalysis(k: Knex, id: number, failure: string | null): Promise<void> {
+	await k('captures')
+		.where({ id })
+		.update({ status: failure ? 'failed' : 'analysed', error: failure, analysis_attempts: k.raw('analysis_attempts + 1') });
+}
+
+/** The analysis could not run at all: failed with the reason. */
+export async function failCapture(k: Knex, id: number, reason: string): Promise<void> {
+	await k('captures').where({ id }).update({ status: 'failed', error: reason });
+}
+
+/** How many captures of a visit are still to be uploaded or analysed. */
+export async function openCaptureCount(k: Knex, sessionId: number): Promise<number> {
+	const r = await k('captures').where({ session_id: sessionId }).whereIn('status', PENDING_CAPTURE_STATUSES).count({ n: '*' }).first();
+	return Number(r?.n ?? 0);
+}
+
+/** How many captures of a visit are in each state. */
+export async function captureStatusCounts(k: Knex, sessionId: number): Promise<Partial<Record<CaptureStatus, number>>> {
+	const rows = (await k('captures').where({ session_id: sessionId }).select('status').count({ n: '*' }).groupBy('status')) as { status: CaptureStatus; n: number | string }[];
+	return Object.fromEntries(rows.map((r) => [r.status, Number(r.n)]));
+}
+
+/** What the analysis of one capture needs: its file, room, points and test signal. */
+export interface CaptureForAnalysis {
+	id: number;
+	sessionId: number;
+	kind: 'impulse' | 'sweep';
+	objectKey: string;
+	referenceObjectKey: string | null;
+	sha256: string | null;
+	channel: number;
+	status: CaptureStatus;
+	room: { lengthM: number; widthM: number; heightM: number };
+	source: Point | null;
+	mic: Point | null;
+	sweep: { objectKey: string; f1Hz: number; f2Hz: number; durationS: number } | null;
+}
+
+export async function getCaptureForAnalysis(k: Knex, id: number): Promise<CaptureForAnalysis | undefined> {
+	const r = await k('captures as c')
+		.join('positions as po', 'po.id', 'c.position_id')
+		.join('sessions as s', 's.id', 'c.session_id')
+		.join('rooms as r', 'r.id', 's.room_id')
+		.leftJoin('sweep_definitions as sd', 'sd.id', 'c.sweep_definition_id')
+		.where('c.id', id)
+		.first(
+			'c.id', 'c.session_id', 'c.kind', 'c.object_key', 'c.reference_object_key', 'c.sha256', 'c.channel', 'c.status',
+			'r.length_m', 'r.width_m', 'r.height_m',
+			'po.source_x_m', 'po.source_y_m', 'po.source_z_m', 'po.mic_x_m', 'po.mic_y_m', 'po.mic_z_m',
+			'sd.object_key as sweep_key', 'sd.f1_hz', 'sd.f2_hz', 'sd.duration_s as sweep_duration_s'
+		);
+	if (!r) return undefined;
+	return {
+		id: r.id,
+		sessionId: r.session_id,
+		kind: r.kind,
+		objectKey: r.object_key,
+		referenceObjectKey: r.reference_object_key,
+		sha256: r.sha256,
+		channel: r.channel,
+		status: r.status,
+		room: { lengthM: Number(r.length_m), widthM: Number(r.width_m), heightM: Number(r.height_m) },
+		source: pointOf(r, 'source'),
+		mic: pointOf(r, 'mic'),
+		sweep: r.sweep_key ? { objectKey: r.sweep_key, f1Hz: r.f1_hz, f2Hz: r.f2_hz, durationS: r.sweep_duration_s } : null
+	};
 }

@@ -16,7 +16,8 @@ export interface PositionRow {
 	mic: Point | null;
 }
 
-function point(r: Record<string, unknown>, prefix: 'source' | 'mic'): Point | null {
+/** The loudspeaker or microphone point of a row with `source_x_m`… columns; null unless complete. */
+export function pointOf(r: Record<string, unknown>, prefix: 'source' | 'mic'): Point | null {
 	const x = r[`${prefix}_x_m`], y = r[`${prefix}_y_m`], z = r[`${prefix}_z_m`];
 	return x == null || y == null || z == null ? null : { x: Number(x), y: Number(y), z: Number(z) };
 }
@@ -28,8 +29,8 @@ function shape(r: Record<string, unknown>): PositionRow {
 		label: r.label as string,
 		sourceLabel: (r.source_label as string) ?? null,
 		micLabel: (r.mic_label as string) ?? null,
-		source: point(r, 'source'),
-		mic: point(r, 'mic')
+		source: pointOf(r, 'source'),
+		mic: pointOf(r, 'mic')
 	};
 }
 
@@ -41,6 +42,22 @@ export async function listPositions(k: Knex, sessionId: number): Promise<Positio
 export async function getPosition(k: Knex, id: number): Promise<PositionRow | undefined> {
 	const r = await k('positions').where({ id }).first();
 	return r ? shape(r) : undefined;
+}
+
+/** Whether the position is one of this visit's. */
+export async function isPositionOfSession(k: Knex, sessionId: number, positionId: number): Promise<boolean> {
+	return Boolean(await k('positions').where({ id: positionId, session_id: sessionId }).first('id'));
+}
+
+/**
+ * The visit's position with this label, made when missing. Two files of a batch may name the
+ * same new position at once: insert-or-ignore, then a locking read, which sees the row whichever
+ * transaction created it.
+ */
+export async function ensurePosition(trx: Knex.Transaction, sessionId: number, label: string): Promise<number> {
+	await trx('positions').insert({ session_id: sessionId, label }).onConflict(['session_id', 'label']).ignore();
+	const row = await trx('positions').where({ session_id: sessionId, label }).forUpdate().first('id');
+	return row.id;
 }
 
 export interface PositionInput {

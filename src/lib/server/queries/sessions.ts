@@ -65,3 +65,28 @@ export async function createSession(
 	});
 	return id;
 }
+
+/** A new capture means the visit is not finished: its "analysed" notice may go out again. */
+export async function clearAnalysedNotice(k: Knex, sessionId: number): Promise<void> {
+	await k('sessions').where({ id: sessionId }).update({ analysed_notice_at: null });
+}
+
+/**
+ * Take the visit's one "analysed" notice: marks it sent (under a row lock, so two workers cannot
+ * both take it) and returns what the mail says, or undefined when it has been taken already.
+ */
+export async function takeAnalysedNotice(
+	trx: Knex.Transaction,
+	sessionId: number
+): Promise<{ conditionLabel: string; roomName: string; acousticianEmail: string | null } | undefined> {
+	const s = await trx('sessions as s')
+		.join('rooms as r', 'r.id', 's.room_id')
+		.leftJoin('users as u', 'u.id', 's.acoustician_id')
+		.where('s.id', sessionId)
+		.whereNull('s.analysed_notice_at')
+		.forUpdate()
+		.first('s.condition_label', 'r.name as room_name', 'u.email');
+	if (!s) return undefined;
+	await trx('sessions').where({ id: sessionId }).update({ analysed_notice_at: trx.raw('CURRENT_TIMESTAMP(3)') });
+	return { conditionLabel: s.condition_label, roomName: s.room_name, acousticianEmail: s.email ?? null };
+}

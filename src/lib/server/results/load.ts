@@ -4,27 +4,19 @@ import { positionFromAnalysis } from '../../results/position';
 import { summariseSession } from '../../results/session';
 import { compareSessions } from '../../results/comparison';
 import type { ComparisonModel, PositionResult, RoomFacts, SessionSummary } from '../../results/types';
+import { analysedCapturesOfSession } from '../queries/analyses';
 import { getRoom } from '../queries/rooms';
 import { getSession } from '../queries/sessions';
 import type { ComparisonRow } from '../queries/reviews';
 
-const parse = (v: unknown) => (typeof v === 'string' ? JSON.parse(v) : v);
-
 /** The latest analysed capture of each position of a visit, as results. */
 export async function loadPositionResults(k: Knex, sessionId: number): Promise<PositionResult[]> {
-	const rows = await k('captures as c')
-		.join('positions as po', 'po.id', 'c.position_id')
-		.join('analyses as a', 'a.capture_id', 'c.id')
-		.where({ 'c.session_id': sessionId, 'c.status': 'analysed' })
-		.orderBy('po.label')
-		.orderBy('c.id', 'desc')
-		.select('c.id', 'po.label', 'a.metrics', 'a.curves');
 	const seen = new Set<string>();
 	const results: PositionResult[] = [];
-	for (const r of rows) {
-		if (seen.has(r.label)) continue; // an older capture of the same position
-		seen.add(r.label);
-		results.push(positionFromAnalysis(r.id, r.label, parse(r.metrics), parse(r.curves)));
+	for (const a of await analysedCapturesOfSession(k, sessionId)) {
+		if (seen.has(a.positionLabel)) continue; // an older capture of the same position
+		seen.add(a.positionLabel);
+		results.push(positionFromAnalysis(a.captureId, a.positionLabel, a.metrics, a.curves));
 	}
 	return results;
 }

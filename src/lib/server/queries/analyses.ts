@@ -1,0 +1,53 @@
+// Stored results of the engine, one row per capture: metrics for lists and tables, curves only
+// for charts, warnings beside them.
+import type { Knex } from 'knex';
+import type { AnalysisCurves, AnalysisResult, AnalysisWarning } from '../../analysis/types';
+import { readJson } from '../json-column';
+
+export type StoredMetrics = Omit<AnalysisResult, 'curves' | 'warnings'>;
+
+export interface StoredAnalysis {
+	engineVersion: string;
+	metrics: StoredMetrics;
+	warnings: AnalysisWarning[];
+	curves: AnalysisCurves;
+}
+
+export async function getAnalysis(k: Knex, captureId: number): Promise<StoredAnalysis | undefined> {
+	const r = await k('analyses').where({ capture_id: captureId }).first('engine_version', 'metrics', 'warnings', 'curves');
+	return r && { engineVersion: r.engine_version, metrics: readJson(r.metrics), warnings: readJson(r.warnings), curves: readJson(r.curves) };
+}
+
+export async function getAnalysisMetrics(k: Knex, captureId: number): Promise<StoredMetrics | undefined> {
+	const r = await k('analyses').where({ capture_id: captureId }).first('metrics');
+	return r && readJson(r.metrics);
+}
+
+/** Replace a capture's result with this one (none: the analysis failed). */
+export async function replaceAnalysis(k: Knex, captureId: number, result: AnalysisResult | null): Promise<void> {
+	await k('analyses').where({ capture_id: captureId }).del();
+	if (!result) return;
+	const { curves, warnings, ...metrics } = result;
+	await k('analyses').insert({
+		capture_id: captureId,
+		engine_version: result.engineVersion,
+		metrics: JSON.stringify(metrics),
+		curves: JSON.stringify(curves),
+		warnings: JSON.stringify(warnings)
+	});
+}
+
+/** The analysed captures of a visit, newest first within each position label. */
+export async function analysedCapturesOfSession(
+	k: Knex,
+	sessionId: number
+): Promise<{ captureId: number; positionLabel: string; metrics: StoredMetrics; curves: AnalysisCurves }[]> {
+	const rows = await k('captures as c')
+		.join('positions as po', 'po.id', 'c.position_id')
+		.join('analyses as a', 'a.capture_id', 'c.id')
+		.where({ 'c.session_id': sessionId, 'c.status': 'analysed' })
+		.orderBy('po.label')
+		.orderBy('c.id', 'desc')
+		.select('c.id', 'po.label', 'a.metrics', 'a.curves');
+	return rows.map((r) => ({ captureId: r.id, positionLabel: r.label, metrics: readJson(r.metrics), curves: readJson(r.curves) }));
+}

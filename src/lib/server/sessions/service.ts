@@ -1,0 +1,62 @@
+// A measurement visit: its page (positions, captures, results) and its positions.
+import { audit } from '../audit';
+import { db } from '../db';
+import { mapDbErrors } from '../db-errors';
+import { Problem } from '../problem';
+import { transaction } from '../transaction';
+import type { Scope } from '../auth/access';
+import { checkPositionInRoom, createPosition, listPositions, type PositionInput } from '../queries/positions';
+import { getProject } from '../queries/projects';
+import { listProblemBands } from '../queries/reviews';
+import { getRoom } from '../queries/rooms';
+import { getSession } from '../queries/sessions';
+import { listSweeps } from '../queries/sweeps';
+import { loadSessionSummary } from '../results/load';
+import { sessionCaptureViews } from '../captures/views';
+import { roleAllows } from '../../roles';
+
+/** The visit page: captures, results and test signals only for the roles that may see or use them. */
+export async function visitPage(scope: Scope, sessionId: number) {
+	const k = db();
+	const session = (await getSession(k, sessionId))!;
+	const room = (await getRoom(k, session.roomId))!;
+	const internal = roleAllows(scope.role, 'project:internal');
+	const upload = roleAllows(scope.role, 'capture:write');
+	const [project, captures, summary, problemBands, sweeps, positions] = await Promise.all([
+		getProject(k, room.projectId),
+		internal ? sessionCaptureViews(k, sessionId) : [],
+		internal ? loadSessionSummary(k, sessionId) : null,
+		listProblemBands(k, room.id),
+		upload ? listSweeps(k, scope.organizationId) : [],
+		listPositions(k, sessionId)
+	]);
+	return {
+		captures,
+		summary,
+		problemBands,
+		sweeps: sweeps.map((s) => ({ id: s.id, name: s.name })),
+		session,
+		room: { id: room.id, name: room.name, lengthM: room.lengthM, widthM: room.widthM, heightM: room.heightM },
+		project: { id: project!.id, name: project!.name },
+		positions,
+		can: { edit: roleAllows(scope.role, 'project:edit'), upload, internal }
+	};
+}
+
+/** A visit's spatial average per band (for the export). */
+export function visitAverage(sessionId: number) {
+	return loadSessionSummary(db(), sessionId);
+}
+
+/** A new measurement position of the visit; given coordinates must lie inside the room. */
+export async function addPosition(scope: Scope, sessionId: number, input: PositionInput): Promise<number> {
+	const k = db();
+	const session = (await getSession(k, sessionId))!;
+	const placeErrors = checkPositionInRoom(input, (await getRoom(k, session.roomId))!);
+	if (Object.keys(placeErrors).length) throw new Problem(400, 'Check the coordinates.', { details: { errors: placeErrors } });
+	return transaction(async (trx) => {
+		const id = await mapDbErrors(createPosition(trx, sessionId, input), { duplicate: 'This visit already has a position with that label.', field: 'label' });
+		await audit(trx, scope, 'position.created', 'position', id);
+		return id;
+	});
+}
