@@ -11,7 +11,8 @@ const config = {
 		csrf: { trustedOrigins: [] },
 		// Scripts only from the app itself (SvelteKit adds each page's nonce). Inline styles are
 		// allowed: Svelte's `style:` directives render style attributes. The object store the
-		// browser uploads to is a runtime setting: hooks.server.ts adds it to connect-src.
+		// browser uploads to is a runtime setting: hooks.server.ts adds it to connect-src. Vite
+		// inlines the small font subsets as data: URLs.
 		csp: {
 			mode: 'auto',
 			directives: {
@@ -19,7 +20,7 @@ const config = {
 				'script-src': ['self'],
 				'style-src': ['self', 'unsafe-inline'],
 				'img-src': ['self', 'data:', 'blob:'],
-				'font-src': ['self'],
+				'font-src': ['self', 'data:'],
 				'connect-src': ['self'],
 				'object-src': ['none'],
 				'base-uri': ['self'],
