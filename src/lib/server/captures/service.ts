@@ -2,32 +2,33 @@
 // or failed. Every step that touches several rows runs in one transaction; objects are removed
 // when their row is, so nothing is left orphaned.
 import type { Knex } from 'knex';
+import type { z } from 'zod';
+import { audit, type Actor } from '../audit';
 import { config } from '../config';
 import { db } from '../db';
-import { recordAudit } from '../audit';
-import { enqueue } from '../jobs/queue';
+import { cancelCaptureJobs, enqueue } from '../jobs/queue';
 import { newObjectKey, storage, type Storage } from '../storage';
 import { transaction } from '../transaction';
-import { Problem } from '../problem';
-import { findDuplicate, getCapture, type CaptureRow } from '../queries/captures';
+import { conflict, notFound, Problem } from '../problem';
+import * as captureRows from '../queries/captures';
+import type { CaptureRow } from '../queries/captures';
+import { ensurePosition, isPositionOfSession } from '../queries/positions';
+import { clearAnalysedNotice } from '../queries/sessions';
+import { isSweepOfOrganization } from '../queries/sweeps';
 import { HEADER_PROBE_BYTES, inspectWavHeader, WavHeaderError, type WavHeader } from './wav-header';
-import type { CreateCaptureInput } from '../../schemas/captures';
+import type { CreateCaptureInput, updateCaptureSchema } from '../../schemas/captures';
 import type { Scope } from '../auth/access';
 
-
-async function resolvePosition(trx: Knex.Transaction, sessionId: number, input: { positionId?: number; newPositionLabel?: string }): Promise<number> {
+/** The position a capture goes to: one of its visit's, or the visit's position of a new label. */
+async function resolvePosition(trx: Knex.Transaction, sessionId: number, input: { positionId?: number; newPositionLabel?: string }): Promise<number | undefined> {
 	if (input.positionId !== undefined) {
-		const p = await trx('positions').where({ id: input.positionId, session_id: sessionId }).first('id');
-		if (!p) throw new Problem(400, 'That position belongs to another visit.', { field: 'positionId' });
-		return p.id;
+		if (!(await isPositionOfSession(trx, sessionId, input.positionId))) throw new Problem(422, 'That position belongs to another visit.', { field: 'positionId' });
+		return input.positionId;
 	}
-	const label = input.newPositionLabel!;
-	// Two files of a batch may name the same new position at once: insert-or-ignore, then a
-	// locking read, which sees the row whichever transaction created it.
-	await trx('positions').insert({ session_id: sessionId, label }).onConflict(['session_id', 'label']).ignore();
-	const row = await trx('positions').where({ session_id: sessionId, label }).forUpdate().first('id');
-	return row.id;
+	return input.newPositionLabel === undefined ? undefined : ensurePosition(trx, sessionId, input.newPositionLabel);
 }
+
+type UpdateCaptureInput = z.infer<typeof updateCaptureSchema>;
 
 export interface CreatedCapture {
 	capture: CaptureRow;
@@ -40,16 +41,15 @@ const WAV_TYPE = 'audio/wav';
 /** Create the capture row (awaiting upload) and presigned PUTs for its file(s). */
 export async function createCapture(scope: Scope, sessionId: number, input: CreateCaptureInput, s: Storage = storage()): Promise<CreatedCapture> {
 	const k = db();
-	const duplicate = await findDuplicate(k, sessionId, input.sha256);
+	const duplicate = await captureRows.findDuplicate(k, sessionId, input.sha256);
 	if (duplicate) {
-		throw new Problem(409, `This file is already in the visit as ${duplicate.filename} (position ${duplicate.positionLabel}).`, {
+		throw conflict(`This file is already in the visit as ${duplicate.filename} (position ${duplicate.positionLabel}).`, {
 			code: 'duplicate',
 			details: { duplicateOf: duplicate.id }
 		});
 	}
-	if (input.sweepDefinitionId !== undefined) {
-		const sweep = await k('sweep_definitions').where({ id: input.sweepDefinitionId, organization_id: scope.organizationId }).first('id');
-		if (!sweep) throw new Problem(400, 'Pick a test signal of this organization.', { field: 'sweepDefinitionId' });
+	if (input.sweepDefinitionId !== undefined && !(await isSweepOfOrganization(k, input.sweepDefinitionId, scope.organizationId))) {
+		throw new Problem(422, 'Pick a test signal of this organization.', { field: 'sweepDefinitionId' });
 	}
 	// Presigning works offline, so ask the store first: if it is down, say so now and write nothing.
 	await s.ping();
@@ -60,28 +60,26 @@ export async function createCapture(scope: Scope, sessionId: number, input: Crea
 	const referenceUrl = referenceObjectKey && input.reference ? await s.presignPut(referenceObjectKey, WAV_TYPE, input.reference.sizeBytes) : null;
 
 	const id = await transaction(async (trx) => {
-		const positionId = await resolvePosition(trx, sessionId, input);
-		const [id] = await trx('captures').insert({
-			session_id: sessionId,
-			position_id: positionId,
+		const id = await captureRows.insertCapture(trx, {
+			sessionId,
+			positionId: (await resolvePosition(trx, sessionId, input))!, // the schema asks for one of the two
 			kind: input.kind,
-			original_filename: input.filename,
-			object_key: objectKey,
-			reference_object_key: referenceObjectKey,
-			sweep_definition_id: input.sweepDefinitionId ?? null,
+			filename: input.filename,
+			objectKey,
+			referenceObjectKey,
+			sweepDefinitionId: input.sweepDefinitionId ?? null,
 			sha256: input.sha256,
-			size_bytes: input.sizeBytes,
+			sizeBytes: input.sizeBytes,
 			channel: input.channel,
-			status: 'awaiting_upload',
-			created_by: scope.user.id
+			createdBy: scope.user.id
 		});
-		await trx('sessions').where({ id: sessionId }).update({ analysed_notice_at: null });
-		await recordAudit(trx, { organizationId: scope.organizationId, userId: scope.user.id, action: 'capture.created', entityType: 'capture', entityId: id, details: { filename: input.filename } });
+		await clearAnalysedNotice(trx, sessionId);
+		await audit(trx, scope, 'capture.created', 'capture', id, { filename: input.filename });
 		return id;
 	});
 	const headers = { 'content-type': WAV_TYPE };
 	return {
-		capture: (await getCapture(k, id))!,
+		capture: (await captureRows.getCapture(k, id))!,
 		upload: { url, method: 'PUT', headers },
 		referenceUpload: referenceUrl ? { url: referenceUrl, method: 'PUT', headers } : null
 	};
@@ -90,7 +88,7 @@ export async function createCapture(scope: Scope, sessionId: number, input: Crea
 /** Check an uploaded object: present, of the declared size, and a readable WAV header. */
 async function checkObject(s: Storage, key: string, declaredSize: number | null, channel: number | null): Promise<WavHeader> {
 	const head = await s.head(key);
-	if (!head) throw new Problem(409, 'The file has not arrived in storage yet. Upload it, then confirm.');
+	if (!head) throw conflict('The file has not arrived in storage yet. Upload it, then confirm.', { code: 'not_uploaded' });
 	if (declaredSize !== null && head.size !== declaredSize) {
 		throw new Problem(422, `The stored file is ${head.size} bytes but ${declaredSize} were announced: upload it again.`);
 	}
@@ -115,28 +113,22 @@ async function checkObject(s: Storage, key: string, declaredSize: number | null,
  */
 export async function confirmUpload(scope: Scope, captureId: number, s: Storage = storage()): Promise<CaptureRow> {
 	const k = db();
-	const capture = await getCapture(k, captureId);
-	if (!capture) throw new Problem(404, 'Not found.');
+	const capture = await captureRows.getCapture(k, captureId);
+	if (!capture) throw notFound();
 	if (capture.status !== 'awaiting_upload') return capture; // idempotent: already confirmed
 	let header: WavHeader;
 	try {
 		header = await checkObject(s, capture.objectKey, capture.sizeBytes, capture.channel);
 		if (capture.referenceObjectKey) await checkObject(s, capture.referenceObjectKey, null, null);
 	} catch (e) {
+		// Not there yet (409) may still arrive; anything else about the file will not get better.
 		if (e instanceof Problem && e.status !== 409) await removeCapture(scope, capture, s, 'capture.refused', { reason: e.message });
 		throw e;
 	}
 	await transaction(async (trx) => {
-		const n = await trx('captures').where({ id: captureId, status: 'awaiting_upload' }).update({
-			status: 'queued',
-			sample_rate: header.sampleRate,
-			channels: header.channels,
-			duration_s: header.durationS,
-			error: null
-		});
-		if (n === 1) await enqueue(trx, 'analyse-capture', { captureId });
+		if (await captureRows.markUploaded(trx, captureId, header)) await enqueue(trx, 'analyse-capture', { captureId });
 	});
-	return (await getCapture(k, captureId))!;
+	return (await captureRows.getCapture(k, captureId))!;
 }
 
 /** Upload through the server (for scripted clients): same checks, streamed to storage. */
@@ -156,57 +148,66 @@ export async function uploadThroughServer(scope: Scope, sessionId: number, input
 	return confirmUpload(scope, created.capture.id, s);
 }
 
+/** Rename the file label, or move the capture to another (or a new) position of its visit. */
+export async function updateCapture(scope: Scope, captureId: number, input: UpdateCaptureInput): Promise<void> {
+	const capture = (await captureRows.getCapture(db(), captureId))!;
+	await transaction(async (trx) => {
+		const positionId = await resolvePosition(trx, capture.sessionId, input);
+		await captureRows.updateCaptureLabels(trx, captureId, { filename: input.filename, positionId });
+		await audit(trx, scope, 'capture.updated', 'capture', captureId, input);
+	});
+}
+
 /** Delete a capture: its objects, its rows (analysis and jobs), and an audit record. */
-export async function removeCapture(scope: Scope, capture: CaptureRow, s: Storage = storage(), action = 'capture.deleted', details: Record<string, unknown> = {}): Promise<void> {
+export async function deleteCapture(scope: Scope, captureId: number, s: Storage = storage()): Promise<void> {
+	await removeCapture(scope, (await captureRows.getCapture(db(), captureId))!, s);
+}
+
+async function removeCapture(actor: Actor, capture: CaptureRow, s: Storage, action = 'capture.deleted', details: Record<string, unknown> = {}): Promise<void> {
 	// Objects first: if storage is down the row stays and the user can try again; a row without
 	// an object would be the worse half-state.
 	for (const key of [capture.objectKey, capture.referenceObjectKey]) if (key) await s.remove(key);
 	await transaction(async (trx) => {
-		await trx('jobs').where('type', 'analyse-capture').whereIn('status', ['queued', 'running']).whereRaw("JSON_VALUE(payload, '$.captureId') = ?", [capture.id]).del();
-		await trx('captures').where({ id: capture.id }).del();
-		await recordAudit(trx, {
-			organizationId: scope.organizationId,
-			userId: scope.user.id || null, // 0: the system itself (abandoned uploads)
-			action,
-			entityType: 'capture',
-			entityId: capture.id,
-			details: { filename: capture.filename, sha256: capture.sha256, ...details }
-		});
+		await cancelCaptureJobs(trx, 'analyse-capture', capture.id);
+		await captureRows.deleteCaptureRow(trx, capture.id);
+		await audit(trx, actor, action, 'capture', capture.id, { filename: capture.filename, sha256: capture.sha256, ...details });
 	});
 }
 
-/** Queue the analysis again (after an engine update, or a fix). Skips captures already waiting. */
-export async function requeueCaptures(scope: Scope, captureIds: number[]): Promise<number> {
+/** Queue the analysis again (after an engine update, or a fix). Skips captures still on their way. */
+async function requeueCaptures(scope: Scope, captureIds: number[]): Promise<number> {
 	return transaction(async (trx) => {
 		let queued = 0;
 		for (const id of captureIds) {
-			const n = await trx('captures').where({ id }).whereIn('status', ['analysed', 'failed']).update({ status: 'queued', error: null });
-			if (n === 1) {
+			if (await captureRows.requeueSettled(trx, id)) {
 				await enqueue(trx, 'analyse-capture', { captureId: id });
 				queued++;
 			}
 		}
-		if (queued) {
-			await recordAudit(trx, { organizationId: scope.organizationId, userId: scope.user.id, action: 'capture.requeued', entityType: 'capture', entityId: captureIds.length === 1 ? captureIds[0] : null, details: { captureIds } });
-		}
-			return queued;
+		if (queued) await audit(trx, scope, 'capture.requeued', 'capture', captureIds.length === 1 ? captureIds[0] : null, { captureIds });
+		return queued;
 	});
+}
+
+/** Run one capture's analysis again; refused while it is still being uploaded or analysed. */
+export async function rerunCapture(scope: Scope, captureId: number): Promise<void> {
+	if ((await requeueCaptures(scope, [captureId])) === 0) {
+		throw conflict('This capture is still being uploaded or analysed: it can run again once it is done.', { details: { queued: 0 } });
+	}
+}
+
+/** Run the analysis of every settled capture of a visit again; how many were queued. */
+export async function rerunSession(scope: Scope, sessionId: number): Promise<number> {
+	return requeueCaptures(scope, await captureRows.captureIdsOfSession(db(), sessionId));
 }
 
 /** Uploads announced but never finished (the browser was closed): remove row and any object. */
 export async function removeAbandonedUploads(k: Knex, olderThanHours = 24, s: Storage = storage()): Promise<number> {
-	const stale = await k('captures as c')
-		.join('sessions as se', 'se.id', 'c.session_id')
-		.join('rooms as r', 'r.id', 'se.room_id')
-		.join('projects as p', 'p.id', 'r.project_id')
-		.where('c.status', 'awaiting_upload')
-		.where('c.created_at', '<', new Date(Date.now() - olderThanHours * 3600_000))
-		.select('c.id', 'p.organization_id');
+	const stale = await captureRows.uploadsAwaitingSince(k, new Date(Date.now() - olderThanHours * 3600_000));
 	for (const row of stale) {
-		const capture = await getCapture(k, row.id);
-		if (!capture) continue;
-		const system: Scope = { organizationId: row.organization_id, projectId: null, role: 'admin', user: { id: 0, email: '', name: 'system', unitSystem: 'metric' } };
-		await removeCapture(system, capture, s, 'capture.abandoned');
+		const capture = await captureRows.getCapture(k, row.id);
+		// Nobody did it: the system itself, on behalf of the capture's organization.
+		if (capture) await removeCapture({ organizationId: row.organizationId, user: null }, capture, s, 'capture.abandoned');
 	}
 	return stale.length;
 }

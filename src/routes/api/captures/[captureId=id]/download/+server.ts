@@ -1,9 +1,7 @@
 import { redirect } from '@sveltejs/kit';
 import { authorize } from '$lib/server/auth/access';
 import { answer } from '$lib/server/api';
-import { getCapture } from '$lib/server/queries/captures';
-import { db } from '$lib/server/db';
-import { storage } from '$lib/server/storage';
+import { originalFileLink } from '$lib/server/captures/read';
 import type { RequestHandler } from './$types';
 
 /** The original file, through a short-lived presigned link (the object key itself is random). */
@@ -11,6 +9,5 @@ export const GET: RequestHandler = async ({ locals, params }) =>
 	answer(async () => {
 		const captureId = Number(params.captureId);
 		await authorize(locals, 'project:internal', { captureId });
-		const c = (await getCapture(db(), captureId))!;
-		redirect(302, await storage().presignGet(c.objectKey, c.filename));
+		redirect(302, await originalFileLink(captureId));
 	});

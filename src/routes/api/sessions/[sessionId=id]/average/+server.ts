@@ -1,7 +1,6 @@
 import { authorize } from '$lib/server/auth/access';
-import { db } from '$lib/server/db';
 import { download, exportFormat } from '$lib/server/exports';
-import { loadSessionSummary } from '$lib/server/results/load';
+import { visitAverage } from '$lib/server/sessions/service';
 import { sessionAverageCsv, sessionAverageJson } from '$lib/results/exports';
 import type { RequestHandler } from './$types';
 
@@ -10,6 +9,6 @@ export const GET: RequestHandler = async ({ locals, params, url }) => {
 	const sessionId = Number(params.sessionId);
 	await authorize(locals, 'project:internal', { sessionId });
 	const format = exportFormat(url);
-	const summary = await loadSessionSummary(db(), sessionId);
+	const summary = await visitAverage(sessionId);
 	return download(format, `${summary.conditionLabel}-${summary.measuredOn}-average`, () => sessionAverageCsv(summary), () => sessionAverageJson(summary));
 };
