@@ -1,4 +1,5 @@
 // Browser-side calls to our JSON routes: one place that turns error answers into messages.
+// A refusal answers { message, code?, errors?: { [field]: reason }, ...details }.
 export class ApiFailure extends Error {
 	constructor(
 		readonly status: number,
@@ -6,6 +7,12 @@ export class ApiFailure extends Error {
 		readonly body: Record<string, unknown>
 	) {
 		super(message);
+	}
+
+	/** The message and, after it, each field's own reason that says more than the message. */
+	get detail(): string {
+		const fields = Object.values((this.body.errors as Record<string, string> | undefined) ?? {}).filter((m) => m !== this.message);
+		return [this.message, ...fields].join(' ');
 	}
 }
 

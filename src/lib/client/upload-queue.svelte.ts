@@ -131,8 +131,7 @@ export class UploadQueue {
 				set({ state: 'duplicate', message: e.message });
 				return;
 			}
-			const fieldErrors = e instanceof ApiFailure ? Object.values((e.body.errors as Record<string, string>) ?? {}) : [];
-			set({ state: 'error', message: [(e as Error).message, ...fieldErrors].join(' ') });
+			set({ state: 'error', message: e instanceof ApiFailure ? e.detail : (e as Error).message });
 		}
 	}
 }
