@@ -1,28 +1,20 @@
 import type { Knex } from 'knex';
 import { PENDING_CAPTURE_STATUSES, type CaptureStatus } from '../../captures/status';
+import type { CaptureView } from '../../types/captures';
 import { readJson } from '../json-column';
 import { pointOf, type Point } from './positions';
 
 export type { CaptureStatus };
 
-export interface CaptureRow {
-	id: number;
+/** What the browser is shown of a capture, as stored; the rest stays on the server. */
+type SharedFields = 'id' | 'positionId' | 'positionLabel' | 'kind' | 'filename' | 'sizeBytes' | 'sampleRate' | 'channels' | 'channel' | 'durationS' | 'status' | 'error';
+
+export interface CaptureRow extends Pick<CaptureView, SharedFields> {
 	sessionId: number;
-	positionId: number;
-	positionLabel: string;
-	kind: 'impulse' | 'sweep';
-	filename: string;
 	objectKey: string;
 	referenceObjectKey: string | null;
 	sweepDefinitionId: number | null;
 	sha256: string | null;
-	sizeBytes: number | null;
-	sampleRate: number | null;
-	channels: number | null;
-	channel: number;
-	durationS: number | null;
-	status: CaptureStatus;
-	error: string | null;
 	createdAt: Date;
 	updatedAt: Date;
 }
