@@ -10,6 +10,7 @@ import { encodeWav } from '../../src/lib/analysis';
 import { createStorage } from '../../src/lib/server/storage';
 import { loadConfig } from '../../src/lib/server/config';
 import { runNextJob } from '../../src/lib/server/jobs/runner';
+import { readJson } from '../../src/lib/server/json-column';
 
 // The capture pipeline against the running test server, the real MariaDB and the S3 fake:
 // announce → PUT to the presigned URL → confirm → analysis job → result.
@@ -19,8 +20,6 @@ let acoustician: Client;
 const c = loadConfig(process.env);
 const s3 = createStorage(c);
 const FIXTURES = join(import.meta.dirname, '../../fixtures');
-// mysql2 returns MariaDB JSON columns as text or parsed, depending on the column type it reports.
-const json = (v: unknown) => (typeof v === 'string' ? JSON.parse(v) : v);
 
 interface Announced {
 	capture: { id: number; status: string };
@@ -82,7 +81,7 @@ describe('a good impulse response', () => {
 		expect(after.status).toBe('analysed');
 		const analyses = await k('analyses').where({ capture_id: id });
 		expect(analyses).toHaveLength(1);
-		const metrics = json(analyses[0].metrics);
+		const metrics = readJson<{ broadband: { t30S: number } }>(analyses[0].metrics);
 		// An ideal exponential decay of T = 0.5 s: T30 within 5 % (ISO 3382-1 Annex A JND).
 		expect(Math.abs(metrics.broadband.t30S - 0.5) / 0.5).toBeLessThan(0.05);
 		expect(analyses[0].engine_version).toMatch(/^\d+\.\d+\.\d+$/);
@@ -163,7 +162,7 @@ describe('a good impulse response', () => {
 		await drain([capture.id]);
 		const row = await k('captures').where({ id: capture.id }).first();
 		expect(row.status, row.error).toBe('analysed');
-		const metrics = json((await k('analyses').where({ capture_id: capture.id }).first()).metrics);
+		const metrics = readJson<{ deconvolution: unknown }>((await k('analyses').where({ capture_id: capture.id }).first()).metrics);
 		expect(metrics.deconvolution).not.toBeNull();
 	});
 });

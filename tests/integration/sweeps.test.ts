@@ -11,6 +11,7 @@ import { decodeWav } from '../../src/lib/analysis';
 import { createStorage } from '../../src/lib/server/storage';
 import { loadConfig } from '../../src/lib/server/config';
 import { runNextJob } from '../../src/lib/server/jobs/runner';
+import { readJson } from '../../src/lib/server/json-column';
 
 // Test signals: made and downloaded from the Test signal page; recordings of one are
 // deconvolved against exactly the stored signal.
@@ -74,8 +75,7 @@ describe('test signals', () => {
 		for (let i = 0; i < 40 && (await runNextJob(k, s3, { owner: 'sweep-test' })); i++);
 		const row = await k('captures').where({ id: a.capture.id }).first();
 		expect(row.status, row.error).toBe('analysed');
-		const m = (await k('analyses').where({ capture_id: a.capture.id }).first()).metrics;
-		const metrics = typeof m === 'string' ? JSON.parse(m) : m;
+		const metrics = readJson<{ broadband: { t30S: number }; deconvolution: { f1Hz: number } }>((await k('analyses').where({ capture_id: a.capture.id }).first()).metrics);
 		// The fixture's room decays with T = 0.4 s (fixtures/README.md): within 10 % after deconvolution.
 		expect(Math.abs(metrics.broadband.t30S - 0.4) / 0.4).toBeLessThan(0.1);
 		expect(metrics.deconvolution.f1Hz).toBe(20);
