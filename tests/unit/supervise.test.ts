@@ -20,7 +20,9 @@ describe('supervise', () => {
 			'failing process exited (3); starting it again in 0.4 s',
 			'failing process exited (3); starting it again in 0.4 s'
 		]);
-		expect(starts).toBe(log.length + 1);
+		// Every exit was followed by a start, except perhaps the last, whose wait the stop cut short.
+		expect(starts - log.length).toBeGreaterThanOrEqual(0);
+		expect(starts - log.length).toBeLessThanOrEqual(1);
 		// Stopped means stopped: no start after it.
 		await sleep(1_000);
 		expect(starts).toBe(after);
