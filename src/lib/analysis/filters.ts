@@ -63,14 +63,27 @@ export function designButterworthBandpass(order: number, lowHz: number, highHz: 
 
 	// N zeros at z = +1 (from s = 0) and N at z = −1 (from s = ∞).
 	const zeros: number[] = [...Array(order).fill(-1), ...Array(order).fill(1)];
-	const upperPoles = poles.filter((p) => p.im > 0);
+	// One pole of each conjugate pair, and the real poles a wide band puts on the axis (scipy's _cplxreal).
+	const isReal = (p: Complex) => Math.abs(p.im) <= 1e-12 * Math.max(1, abs(p));
+	const remaining = poles.filter((p) => p.im > 0 || isReal(p)).map((p) => (isReal(p) ? { re: p.re, im: 0 } : p));
+	const closestToUnitCircle = (candidates: Complex[]): number => {
+		let worst = -1;
+		for (let i = 0; i < candidates.length; i++) {
+			if (worst < 0 || Math.abs(1 - abs(candidates[i])) < Math.abs(1 - abs(candidates[worst]))) worst = i;
+		}
+		return worst;
+	};
 	const sections = new Float64Array(order * 6);
 	for (let section = order - 1; section >= 0; section--) {
-		let worst = 0;
-		for (let i = 1; i < upperPoles.length; i++) {
-			if (Math.abs(1 - abs(upperPoles[i])) < Math.abs(1 - abs(upperPoles[worst]))) worst = i;
+		const [pole] = remaining.splice(closestToUnitCircle(remaining), 1);
+		// A complex pole goes with its conjugate; a real one with the real pole next closest to the unit circle.
+		let second: Complex = { re: pole.re, im: -pole.im };
+		if (isReal(pole)) {
+			const reals = remaining.filter(isReal);
+			if (reals.length === 0) throw new RangeError('unpaired real pole in a band-pass design');
+			second = reals[closestToUnitCircle(reals)];
+			remaining.splice(remaining.indexOf(second), 1);
 		}
-		const [pole] = upperPoles.splice(worst, 1);
 		const takeNearestZero = (): number => {
 			let best = 0;
 			for (let i = 1; i < zeros.length; i++) {
@@ -85,8 +98,9 @@ export function designButterworthBandpass(order: number, lowHz: number, highHz: 
 		sections[row + 1] = -(z1 + z2);
 		sections[row + 2] = z1 * z2;
 		sections[row + 3] = 1;
-		sections[row + 4] = -2 * pole.re;
-		sections[row + 5] = pole.re * pole.re + pole.im * pole.im;
+		// (z − p)(z − q) = z² − (p + q)z + pq, real for a conjugate pair and for two real poles.
+		sections[row + 4] = -(pole.re + second.re);
+		sections[row + 5] = pole.re * second.re - pole.im * second.im;
 	}
 	for (let i = 0; i < 3; i++) sections[i] *= gain.re;
 	return sections;

@@ -20,7 +20,10 @@ describe('Butterworth band-pass design against scipy.signal.butter(N, [f1, f2], 
 		{ order: 3, lowHz: 8912.5, highHz: 11220.2, sampleRate: 44100 },
 		{ order: 1, lowHz: 300, highHz: 600, sampleRate: 48000 },
 		{ order: 2, lowHz: 100, highHz: 5000, sampleRate: 192000 },
-		{ order: 4, lowHz: 891.251, highHz: 1122.018, sampleRate: 48000 }
+		{ order: 4, lowHz: 891.251, highHz: 1122.018, sampleRate: 48000 },
+		// Wide bands, whose middle poles fall on the real axis (the broadband span of the analysis bands).
+		{ order: 3, lowHz: 40, highHz: 12000, sampleRate: 44100 },
+		{ order: 3, lowHz: 37.9, highHz: 13200, sampleRate: 48000 }
 	];
 	const reference = runReference<{ sos: number[][][] }>('filters.py', { designs }).sos;
 
