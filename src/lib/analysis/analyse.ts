@@ -3,12 +3,12 @@ import { analyseDecay, DECAY_METRICS, squaredFrom, squareInPlace, type DecayAnal
 import { bandLabel, type BandKind } from './bands';
 import { decimateEvenly, decimateKeepingPeaks, roundTo } from './curves';
 import type { DecayFit } from './decay-fit';
-import { deconvolveSweep } from './deconvolve';
+import { completeLengthAt, deconvolveSweep } from './deconvolve';
 import { energyTimeCurveDb } from './envelope';
 import { AnalysisInputError } from './errors';
 import { createBandFilterBank } from './filters';
 import { findDirectSoundPeak, findImpulseStart } from './onset';
-import { REQUIRED_PEAK_TO_NOISE_DB } from './quality';
+import { REQUIRED_INR_DB } from './quality';
 import { decayLevelDb } from './schroeder';
 import { attributeReflections, detectReflections, firstOrderImages, type DetectedReflection } from './reflections';
 import { frequencyResponse, logSpacedCurve, smoothFractionalOctave, SMOOTHING_FRACTIONS } from './response';
@@ -41,6 +41,10 @@ const ETC_MARGIN_MS = 10;
 const FREQUENCY_POINTS_PER_OCTAVE = 48;
 const WATERFALL_DURATION_MS = 300;
 const BROADBAND = 'broadband';
+/** The direct sound, for the direct-to-reverberant ratio: up to 2.5 ms after its peak (common practice, no source). */
+const DIRECT_SOUND_WINDOW_S = 0.0025;
+/** A band is analysed while the response holds everything up to an octave above its upper edge, where its filter is > 60 dB down. */
+const COMPLETE_ABOVE_UPPER_EDGE = 2;
 
 /** Adds up the time spent per stage and reports the totals once. */
 function createStageClock(onStage: AnalysisOptions['onStage']) {
@@ -105,7 +109,8 @@ function bandMetrics(centerHz: number, exactHz: number, analysis: DecayAnalysis)
 		c80Db: finiteOrNull(energy?.c80Db),
 		d50: finiteOrNull(energy?.d50),
 		tsMs: finiteOrNull(energy?.centreTimeMs),
-		peakToNoiseDb: Number.isFinite(analysis.peakToNoiseDb) ? analysis.peakToNoiseDb : null,
+		inrDb: finiteOrNull(analysis.inrDb ?? undefined),
+		peakToNoiseDb: finiteOrNull(analysis.inrDb ?? undefined),
 		r: { edt: fits.edt?.r ?? null, t20: fits.t20?.r ?? null, t30: fits.t30?.r ?? null },
 		xi: {
 			edt: fits.edt?.nonLinearityPermille ?? null,
@@ -200,6 +205,20 @@ interface Provenance {
 	clipping: ClippingSummary | null;
 	warnings: AnalysisWarning[];
 	deconvolution: DeconvolutionSummary | null;
+	/** Samples holding the response at every frequency (a deconvolved sweep's low end is recorded for longer); default all. */
+	fullBandLength?: number;
+	/** Samples holding the response at frequencies up to fHz; default all. */
+	completeLengthAt?: (frequencyHz: number) => number;
+}
+
+function directSoundNote(directToReverberantDb: number | null, warnings: AnalysisWarning[]): void {
+	if (directToReverberantDb === null || directToReverberantDb <= 0) return;
+	const share = Math.round(100 / (1 + 10 ** (-directToReverberantDb / 10)));
+	warnings.push({
+		code: 'direct_sound_dominates',
+		band: null,
+		message: `broadband: the direct sound carries ${share} % of the energy (direct-to-reverberant ratio +${directToReverberantDb.toFixed(1)} dB): EDT, C50, C80, D50 and Ts say mostly how near the source is, not how the room decays — T20 and T30 describe the room`
+	});
 }
 
 function analyse(
@@ -211,50 +230,61 @@ function analyse(
 ): AnalysisResult {
 	const kind = checkOptions(options);
 	checkSamples(samples, sampleRate);
-	const start = findImpulseStart(samples);
-	if (samples.length - start < MIN_DECAY_S * sampleRate) {
+	// Everything but the bands uses the part that holds the response at every frequency.
+	const fullLength = Math.min(samples.length, provenance.fullBandLength ?? samples.length);
+	const full = samples.subarray(0, fullLength);
+	const start = findImpulseStart(full);
+	if (full.length - start < MIN_DECAY_S * sampleRate) {
 		throw new AnalysisInputError(
 			'too_short',
-			`only ${(((samples.length - start) / sampleRate) * 1000).toFixed(0)} ms follow the direct sound: at least ${MIN_DECAY_S * 1000} ms are needed`
+			`only ${(((full.length - start) / sampleRate) * 1000).toFixed(0)} ms follow the direct sound: at least ${MIN_DECAY_S * 1000} ms are needed`
 		);
 	}
-	const direct = findDirectSoundPeak(samples, start, sampleRate);
+	const direct = findDirectSoundPeak(full, start, sampleRate);
 	const warnings = [...provenance.warnings];
 
-	const broadbandAnalysis = clock.time('decay', () => analyseDecay(squaredFrom(samples, start), sampleRate));
+	const bank = createBandFilterBank(sampleRate, kind);
+	const maxLead = Math.max(bank.span.padding, ...bank.filters.map((filter) => filter.padding));
+	// One scratch buffer serves every band; each band's results are kept, its signals dropped.
+	const scratch = new Float64Array(bank.scratchLength(samples.length, maxLead));
+	// Each filter runs from its lead before the start point (silence before the file if it starts
+	// sooner), so the pre-ringing ahead of the direct sound is kept and counted as early energy.
+	const filtered = (lead: number, end: number, run: (from: number, leadingZeros: number) => Float64Array) => {
+		const from = Math.max(0, start - lead);
+		return clock.time('filtering', () => squareInPlace(run(from, lead - (start - from))).subarray(0, lead + end - start));
+	};
+
+	// Broadband: the span of the bands, analysed as a band is.
+	const spanLead = bank.span.padding;
+	const broadbandSquared = filtered(spanLead, full.length, (from, zeros) => bank.filterSpanZeroPhase(full, from, full.length, scratch, zeros));
+	const broadbandAnalysis = clock.time('decay', () =>
+		analyseDecay(broadbandSquared, sampleRate, { startIndex: spanLead, directEnd: direct - start + Math.round(DIRECT_SOUND_WINDOW_S * sampleRate) })
+	);
 	collectWarnings(null, broadbandAnalysis, warnings);
+	directSoundNote(broadbandAnalysis.directToReverberantDb, warnings);
 	const broadband = bandMetrics(0, 0, broadbandAnalysis);
 
-	const bank = createBandFilterBank(sampleRate, kind);
 	const decayPoints = Math.max(2, Math.min(MAX_DECAY_POINTS, Math.floor(DECAY_POINT_BUDGET / (bank.filters.length + 1))));
 	const decayCurves = [decayCurve(BROADBAND, broadbandAnalysis, sampleRate, decayPoints)];
-	// One scratch buffer serves every band; each band's results are kept, its signals dropped.
-	const maxLead = Math.max(...bank.filters.map((filter) => filter.padding));
-	const scratch = new Float64Array(bank.scratchLength(samples.length, maxLead));
 	const bands = bank.filters.map((filter, i) => {
-		// Filter from 4/B before the start point (silence before the file if it starts sooner), so the
-		// band's pre-ringing ahead of the direct sound is kept and counted as early energy.
-		const lead = filter.padding;
-		const from = Math.max(0, start - lead);
-		const squared = clock.time('filtering', () =>
-			squareInPlace(bank.filterZeroPhase(i, samples, from, samples.length, scratch, lead - (start - from)))
-		);
-		const analysis = clock.time('decay', () => analyseDecay(squared, sampleRate, { bandwidthHz: filter.bandwidthHz, startIndex: lead }));
+		const end = Math.max(fullLength, Math.min(samples.length, provenance.completeLengthAt?.(COMPLETE_ABOVE_UPPER_EDGE * filter.band.upperHz) ?? samples.length));
+		const squared = filtered(filter.padding, end, (from, zeros) => bank.filterZeroPhase(i, samples, from, end, scratch, zeros));
+		const analysis = clock.time('decay', () => analyseDecay(squared, sampleRate, { bandwidthHz: filter.bandwidthHz, startIndex: filter.padding }));
 		collectWarnings(filter.band.nominalHz, analysis, warnings);
 		decayCurves.push(decayCurve(filter.band.nominalHz, analysis, sampleRate, decayPoints));
 		return bandMetrics(filter.band.nominalHz, filter.band.exactHz, analysis);
 	});
 
 	const curves: AnalysisCurves = clock.time('curves', () => ({
-		...frequencyCurves(samples, sampleRate, start),
+		...frequencyCurves(full, sampleRate, start),
 		decay: decayCurves,
-		etc: energyTimeCurve(samples, sampleRate, start, direct),
-		waterfall: waterfall(samples, sampleRate, start)
+		etc: energyTimeCurve(full, sampleRate, start, direct),
+		waterfall: waterfall(full, sampleRate, start)
 	}));
-	const reflections = clock.time('reflections', () => reflectionsOf(samples, sampleRate, start, options));
+	const reflections = clock.time('reflections', () => reflectionsOf(full, sampleRate, start, options));
 	clock.report();
 
-	const peakToNoiseDb = broadband.peakToNoiseDb;
+	const inrDb = broadband.inrDb ?? null;
 	return {
 		engineVersion: ENGINE_VERSION,
 		sampleRate,
@@ -262,7 +292,8 @@ function analyse(
 		durationS: provenance.durationS,
 		bandKind: kind,
 		directSoundS: start / sampleRate,
-		peakToNoiseDb,
+		inrDb,
+		peakToNoiseDb: inrDb,
 		broadband,
 		bands,
 		reflections,
@@ -270,8 +301,10 @@ function analyse(
 		curves,
 		quality: {
 			clipping: provenance.clipping,
-			peakToNoiseDb,
-			lowDynamicRange: peakToNoiseDb === null || peakToNoiseDb < REQUIRED_PEAK_TO_NOISE_DB.t30,
+			inrDb,
+			peakToNoiseDb: inrDb,
+			lowDynamicRange: inrDb === null || inrDb < REQUIRED_INR_DB.t30,
+			directToReverberantDb: broadbandAnalysis.directToReverberantDb === null ? null : roundTo(broadbandAnalysis.directToReverberantDb, 2),
 			biasedBands: bands.filter((band) => band.biased).map((band) => band.centerHz)
 		},
 		deconvolution: provenance.deconvolution
@@ -296,6 +329,7 @@ export function analyseRecording(bytes: Uint8Array, options: RecordingAnalysisOp
 	const warnings: AnalysisWarning[] = decoded.warnings.map((message) => ({ code: 'clipping', band: null, message }));
 	let impulseResponse = decoded.samples;
 	let deconvolution: DeconvolutionSummary | null = null;
+	let lengths: Pick<Provenance, 'fullBandLength' | 'completeLengthAt'> = {};
 	const reference = options.reference;
 	if (reference && options.referenceSampleRate !== undefined && options.referenceSampleRate !== decoded.sampleRate) {
 		throw new AnalysisInputError(
@@ -306,6 +340,7 @@ export function analyseRecording(bytes: Uint8Array, options: RecordingAnalysisOp
 	if (reference) {
 		const result = clock.time('deconvolution', () => deconvolveSweep(decoded.samples, reference, decoded.sampleRate, options.sweep ?? {}));
 		impulseResponse = result.impulseResponse;
+		lengths = { fullBandLength: result.fullBandLength, completeLengthAt: (frequencyHz) => completeLengthAt(result, frequencyHz) };
 		deconvolution = {
 			peakLagS: result.peakLagS,
 			f1Hz: result.sweep.f1Hz,
@@ -317,7 +352,7 @@ export function analyseRecording(bytes: Uint8Array, options: RecordingAnalysisOp
 		impulseResponse,
 		decoded.sampleRate,
 		options,
-		{ channels: decoded.channels, durationS: decoded.durationS, clipping: decoded.clipping, warnings, deconvolution },
+		{ channels: decoded.channels, durationS: decoded.durationS, clipping: decoded.clipping, warnings, deconvolution, ...lengths },
 		clock
 	);
 }

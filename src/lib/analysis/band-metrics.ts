@@ -10,16 +10,14 @@ import {
 	curvatureProblem,
 	CURVATURE_LIMIT_PERCENT,
 	energyProblem,
-	MIN_PEAK_TO_NOISE_FOR_ENERGY_DB,
 	FILTER_BIAS_MIN_BT,
 	filterBiasProblem,
+	inrProblem,
 	isFilterBiased,
 	MIN_BANDWIDTH_FOR_ENERGY_HZ,
-	timeResolutionProblem,
-	NOISE_MARGIN_DB,
-	noiseMarginProblem,
-	peakToNoiseProblem,
-	rangeNotReachedProblem
+	MIN_INR_FOR_ENERGY_DB,
+	rangeNotReachedProblem,
+	timeResolutionProblem
 } from './quality';
 import { decayLevelDb, exponentialTailEnergy, schroederDecay } from './schroeder';
 
@@ -32,7 +30,10 @@ export interface BandProblem {
 
 export interface DecayAnalysis {
 	noise: NoiseFloorEstimate;
-	peakToNoiseDb: number;
+	/** Impulse response-to-noise ratio, −decayDepthDb (see quality.ts); null when no decay was found. */
+	inrDb: number | null;
+	/** The response ended before its decay met the background: the INR is a lower bound. */
+	recordEndsInDecay: boolean;
 	/** Schroeder decay from the start point to the truncation point, linear energy re its start. */
 	decay: Float64Array;
 	/** Level of the compensated decay curve at the truncation point, dB re its start (≈ where the decay meets the noise). */
@@ -40,6 +41,8 @@ export interface DecayAnalysis {
 	/** Fits of the values that are trusted; the others are null. */
 	fits: Record<DecayMetric, DecayFit | null>;
 	energy: EnergyParameters | null;
+	/** 10·lg(direct / rest) of the energy, when the direct sound's end was given and the energy is trusted. */
+	directToReverberantDb: number | null;
 	curvaturePct: number | null;
 	biased: boolean;
 	problems: BandProblem[];
@@ -51,6 +54,8 @@ export interface DecayAnalysisOptions {
 	/** Band filter bandwidth for the B·T criterion; omitted for the broadband response. */
 	bandwidthHz?: number;
 	biasCriterion?: number;
+	/** End of the direct sound, in samples after the start point: its energy against the rest is reported. */
+	directEnd?: number;
 }
 
 /** Squares a signal from `start` on, into a new array. */
@@ -70,28 +75,24 @@ export function analyseDecay(withPreOnset: Float64Array, sampleRate: number, opt
 	const startIndex = options.startIndex ?? 0;
 	const squared = withPreOnset.subarray(startIndex);
 	const noise = estimateNoiseFloor(squared, sampleRate);
-	const peakToNoiseDb = -noise.noiseDbRePeak;
 	const problems: BandProblem[] = [];
 	const slope = noise.lateSlopeDbPerS;
 	const tailEnergy = slope === null ? 0 : exponentialTailEnergy(noise.powerAtCrosspoint, slope, sampleRate);
 	const decay = schroederDecay(squared, noise.crosspointIndex, tailEnergy);
 
-	// With the tail compensated, the curve ends at about the decay's depth below its start: where it meets the noise.
+	// With the tail compensated, the curve ends at the decay's depth below its start where it meets the noise: the INR.
 	const decayDepthDb = decayLevelDb(decay[decay.length - 1]);
+	const inrDb = slope === null ? null : -decayDepthDb;
+	const recordEndsInDecay = slope !== null && noise.crosspointIndex >= squared.length;
 	const fits = { edt: null, t20: null, t30: null } as Record<DecayMetric, DecayFit | null>;
-	if (slope === null) {
+	if (slope === null || inrDb === null) {
 		problems.push({ code: 'no_decay_found', message: 'no decay above the background was found: check the capture' });
 	}
 	for (const metric of DECAY_METRICS) {
-		if (slope === null) continue;
-		const dynamicRange = peakToNoiseProblem(metric, peakToNoiseDb);
-		if (dynamicRange) {
-			problems.push({ code: 'insufficient_dynamic_range', message: dynamicRange });
-			continue;
-		}
-		const { bottomDb } = EVALUATION_RANGES[metric];
-		if (slope !== null && noise.crosspointIndex < squared.length && decayDepthDb > bottomDb - NOISE_MARGIN_DB) {
-			problems.push({ code: 'insufficient_dynamic_range', message: noiseMarginProblem(metric, bottomDb, decayDepthDb) });
+		if (inrDb === null) continue;
+		const shortOfRange = inrProblem(metric, inrDb, recordEndsInDecay);
+		if (shortOfRange) {
+			problems.push({ code: 'insufficient_dynamic_range', message: shortOfRange });
 			continue;
 		}
 		const fit = fitDecayRange(decay, sampleRate, EVALUATION_RANGES[metric]);
@@ -102,8 +103,8 @@ export function analyseDecay(withPreOnset: Float64Array, sampleRate: number, opt
 		fits[metric] = fit;
 	}
 
-	const energyTrusted = peakToNoiseDb >= MIN_PEAK_TO_NOISE_FOR_ENERGY_DB;
-	if (slope !== null && !energyTrusted) problems.push({ code: 'insufficient_dynamic_range', message: energyProblem(peakToNoiseDb) });
+	const energyTrusted = inrDb !== null && inrDb >= MIN_INR_FOR_ENERGY_DB;
+	if (inrDb !== null && !energyTrusted) problems.push({ code: 'insufficient_dynamic_range', message: energyProblem(inrDb) });
 	const energy =
 		slope !== null && energyTrusted
 			? energyParameters(
@@ -114,6 +115,15 @@ export function analyseDecay(withPreOnset: Float64Array, sampleRate: number, opt
 					startIndex
 				)
 			: null;
+	let directToReverberantDb: number | null = null;
+	if (energy && options.directEnd !== undefined) {
+		// The direct sound: everything before its end, pre-ringing included, as for the early energies.
+		const end = Math.min(startIndex + Math.max(1, options.directEnd), startIndex + noise.crosspointIndex);
+		let direct = 0;
+		for (let i = 0; i < end; i++) direct += withPreOnset[i];
+		const rest = energy.totalEnergy - direct;
+		if (direct > 0 && rest > 0) directToReverberantDb = 10 * Math.log10(direct / rest);
+	}
 
 	const t20 = fits.t20?.reverberationTimeS ?? null;
 	const t30 = fits.t30?.reverberationTimeS ?? null;
@@ -133,5 +143,5 @@ export function analyseDecay(withPreOnset: Float64Array, sampleRate: number, opt
 		biased = true;
 		problems.push({ code: 'filter_time_resolution', message: timeResolutionProblem(options.bandwidthHz) });
 	}
-	return { noise, peakToNoiseDb, decay, decayDepthDb, fits, energy, curvaturePct, biased, problems };
+	return { noise, inrDb, recordEndsInDecay, decay, decayDepthDb, fits, energy, directToReverberantDb, curvaturePct, biased, problems };
 }

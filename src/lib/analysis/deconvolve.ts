@@ -31,7 +31,19 @@ export interface HarmonicProduct {
 }
 
 export interface DeconvolutionResult {
+	/**
+	 * From a little before the linear peak to where the recording stops holding the response at
+	 * the sweep's lowest frequency. The low frequencies are swept first, so their response is
+	 * recorded for longer than the high ones': the first `fullBandLength` samples hold the
+	 * response at every frequency, later ones only below a falling limit (completeLengthAt).
+	 */
 	impulseResponse: Float64Array;
+	/** Samples of impulseResponse that hold the response at every frequency up to f₂. */
+	fullBandLength: number;
+	/** Index in the recording where the played sweep's start arrives with no delay (the reference's first audible sample). */
+	sweepStartIndex: number;
+	/** Samples in the recording. */
+	recordedLength: number;
 	sampleRate: number;
 	/** Lag of impulseResponse[0], in samples, re the start of the recording (negative = before it). */
 	startLag: number;
@@ -46,6 +58,8 @@ export interface FullDeconvolution {
 	/** Circular result: lag ℓ ≥ 0 at index ℓ, negative lags wrap to the end (index N + ℓ). */
 	response: Float64Array;
 	sweep: SweepLaw;
+	/** Index of the reference's first audible sample (the sweep's start). */
+	referenceStart: number;
 	/** Index just past the reference's last audible sample (the sweep's end). */
 	referenceEnd: number;
 }
@@ -195,7 +209,8 @@ export function deconvolveFull(
 	// The reference spectrum is spent: its buffer takes the result (saves N doubles at the peak).
 	const response = referenceSpectrum.subarray(0, size);
 	plan.inverse(spectrum, response);
-	return { response, sweep: law, referenceEnd: audibleRange(reference).end };
+	const audible = audibleRange(reference);
+	return { response, sweep: law, referenceStart: audible.first, referenceEnd: audible.end };
 }
 
 function circularEnergy(x: Float64Array, centreLag: number, halfWidth: number): number {
@@ -219,7 +234,7 @@ export function deconvolveSweep(
 	sampleRate: number,
 	options: DeconvolutionOptions = {}
 ): DeconvolutionResult {
-	const { response, sweep, referenceEnd } = deconvolveFull(recorded, reference, sampleRate, options);
+	const { response, sweep, referenceStart, referenceEnd } = deconvolveFull(recorded, reference, sampleRate, options);
 	const size = response.length;
 	// Lags past this point were cut off by the end of the recording before the sweep's response finished.
 	const lastCompleteLag = recorded.length - referenceEnd;
@@ -242,10 +257,12 @@ export function deconvolveSweep(
 	const preRoll = Math.round(Math.min(options.preRollS ?? DEFAULT_PRE_ROLL_S, secondLead / 2) * sampleRate);
 	const startLag = peakLag - preRoll;
 	const maxLength = Math.round((options.maxLengthS ?? DEFAULT_MAX_LENGTH_S) * sampleRate);
-	const length = Math.min(maxLength, lastCompleteLag - startLag + 1);
-	if (length < MIN_LENGTH_S * sampleRate) {
+	const fullBandLength = Math.min(maxLength, lastCompleteLag - startLag + 1);
+	if (fullBandLength < MIN_LENGTH_S * sampleRate) {
 		throw new AnalysisInputError('sweep_not_recorded', 'the recording ends before the room response to the sweep: record longer after the sweep');
 	}
+	// The response at f₁ is recorded until the recording ends, that many samples after the sweep's start.
+	const length = Math.max(fullBandLength, Math.min(maxLength, recorded.length - referenceStart - startLag));
 	const impulseResponse = new Float64Array(length);
 	for (let i = 0; i < length; i++) impulseResponse[i] = response[(startLag + i + size) % size];
 
@@ -259,5 +276,29 @@ export function deconvolveSweep(
 		const energy = visible ? circularEnergy(response, lag, halfWindow) : 0;
 		return { order, leadS, levelDb: visible && energy > 0 ? 10 * Math.log10(energy / linearEnergy) : null };
 	});
-	return { impulseResponse, sampleRate, startLag, peakLag, peakLagS: peakLag / sampleRate, sweep, harmonics };
+	return {
+		impulseResponse,
+		fullBandLength,
+		sweepStartIndex: referenceStart,
+		recordedLength: recorded.length,
+		sampleRate,
+		startLag,
+		peakLag,
+		peakLagS: peakLag / sampleRate,
+		sweep,
+		harmonics
+	};
+}
+
+/**
+ * Samples of the impulse response that hold the whole response at every frequency up to fHz: the
+ * sweep passes f at t_f = L·ln(f/f₁) after its start (Farina 2000), and the response to it is
+ * recorded until the recording ends. Never fewer than the full-band length, never more than all.
+ */
+export function completeLengthAt(result: DeconvolutionResult, frequencyHz: number): number {
+	const { f1Hz, f2Hz, rateConstantS } = result.sweep;
+	const f = Math.min(Math.max(frequencyHz, f1Hz), f2Hz);
+	const passesAt = result.sweepStartIndex + Math.ceil(rateConstantS * Math.log(f / f1Hz) * result.sampleRate);
+	const complete = result.recordedLength - passesAt - result.startLag;
+	return Math.max(result.fullBandLength, Math.min(result.impulseResponse.length, complete));
 }

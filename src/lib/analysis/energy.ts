@@ -10,6 +10,8 @@ export interface EnergyParameters {
 	c80Db: number;
 	d50: number;
 	centreTimeMs: number;
+	/** ∫ p² over the whole response (pre-ringing, samples up to the truncation and the tail), in squared-sample units. */
+	totalEnergy: number;
 }
 
 /** Exponential continuation P₁·e^(−k(t − t₁)) past the truncation point t₁. */
@@ -61,6 +63,7 @@ export function energyParameters(squared: Float64Array, sampleRate: number, end:
 		c50Db: 10 * Math.log10(early50 / (total - early50)),
 		c80Db: 10 * Math.log10(early80 / (total - early80)),
 		d50: early50 / total,
-		centreTimeMs: (1000 * moment) / total
+		centreTimeMs: (1000 * moment) / total,
+		totalEnergy: total
 	};
 }

@@ -213,6 +213,12 @@ export interface BandFilterBank {
 	kind: BandKind;
 	filters: BandFilter[];
 	/**
+	 * One band-pass over the span of all the bands (lowest lower edge to highest upper edge), for
+	 * the broadband values: its energies are the bands' energies together, and what lies outside
+	 * every band (drift and rumble below the lowest, hiss above the highest) is left out of them too.
+	 */
+	span: BandFilter;
+	/**
 	 * Zero-phase band signal of input[start…end): forward then backward through the band's sections.
 	 * The end is extended by its even mirror image (the background goes on), so the backward pass's
 	 * start-up transient falls outside; the start is not mirrored, which would echo the direct
@@ -229,6 +235,8 @@ export interface BandFilterBank {
 		scratch?: Float64Array,
 		leadingZeros?: number
 	): Float64Array;
+	/** The same through the span filter. */
+	filterSpanZeroPhase(input: Float64Array, start?: number, end?: number, scratch?: Float64Array, leadingZeros?: number): Float64Array;
 	/** Scratch length filterZeroPhase needs for `length` input samples (and leading zeros) in any band. */
 	scratchLength(length: number, leadingZeros?: number): number;
 }
@@ -254,19 +262,22 @@ export function createBandFilterBank(sampleRate: number, kind: BandKind): BandFi
 		};
 	});
 
-	const maxPadding = Math.max(...filters.map((filter) => filter.padding));
+	const lowest = filters[0].band;
+	const highest = filters[filters.length - 1].band;
+	const spanEdges = zeroPhasePassEdges(lowest.lowerHz, highest.upperHz, sampleRate, BAND_FILTER_ORDER);
+	if (spanEdges.highHz >= sampleRate / 2) throw new RangeError(`the bands' span does not fit below half of ${sampleRate} Hz`);
+	const span: BandFilter = {
+		band: { ...lowest, nominalHz: 0, exactHz: Math.sqrt(lowest.lowerHz * highest.upperHz), upperHz: highest.upperHz },
+		sections: designButterworthBandpass(BAND_FILTER_ORDER, spanEdges.lowHz, spanEdges.highHz, sampleRate),
+		bandwidthHz: highest.upperHz - lowest.lowerHz,
+		// A wide band rings at its lower edge: settled after about 4 periods of it.
+		padding: Math.ceil((4 * sampleRate) / lowest.lowerHz)
+	};
+
+	const maxPadding = Math.max(span.padding, ...filters.map((filter) => filter.padding));
 	const scratchLength = (length: number, leadingZeros = 0) => leadingZeros + length + Math.min(maxPadding, Math.max(0, length - 1));
 
-	function filterZeroPhase(
-		bandIndex: number,
-		input: Float64Array,
-		start = 0,
-		end = input.length,
-		scratch?: Float64Array,
-		leadingZeros = 0
-	): Float64Array {
-		const filter = filters[bandIndex];
-		if (!filter) throw new RangeError(`no band ${bandIndex}: the bank has ${filters.length} bands`);
+	function zeroPhase(filter: BandFilter, input: Float64Array, start: number, end: number, scratch: Float64Array | undefined, leadingZeros: number): Float64Array {
 		if (!(start >= 0 && end <= input.length && end > start)) throw new RangeError(`bad range ${start}…${end} of ${input.length} samples`);
 		if (!(Number.isInteger(leadingZeros) && leadingZeros >= 0)) throw new RangeError(`leading zeros must be a whole number, got ${leadingZeros}`);
 		const length = end - start;
@@ -282,5 +293,21 @@ export function createBandFilterBank(sampleRate: number, kind: BandKind): BandFi
 		return work.subarray(0, leadingZeros + length);
 	}
 
-	return { sampleRate, kind, filters, filterZeroPhase, scratchLength };
+	function filterZeroPhase(
+		bandIndex: number,
+		input: Float64Array,
+		start = 0,
+		end = input.length,
+		scratch?: Float64Array,
+		leadingZeros = 0
+	): Float64Array {
+		const filter = filters[bandIndex];
+		if (!filter) throw new RangeError(`no band ${bandIndex}: the bank has ${filters.length} bands`);
+		return zeroPhase(filter, input, start, end, scratch, leadingZeros);
+	}
+
+	const filterSpanZeroPhase = (input: Float64Array, start = 0, end = input.length, scratch?: Float64Array, leadingZeros = 0) =>
+		zeroPhase(span, input, start, end, scratch, leadingZeros);
+
+	return { sampleRate, kind, filters, span, filterZeroPhase, filterSpanZeroPhase, scratchLength };
 }

@@ -1,14 +1,23 @@
 import type { DecayMetric } from './decay-fit';
 
 /**
- * Peak-to-noise ratio a metric needs: the bottom of its evaluation range at least 10 dB above the
- * noise (ISO 3382-1:2009 and ISO 3382-2:2008, from memory) — 35 dB for T20 (−25 dB) and 45 dB for T30 (−35 dB);
- * EDT's −10 dB by the same rule needs 20 dB (common practice, no source).
+ * How far a response stands above its background is given as the impulse response-to-noise ratio
+ * INR = 10·lg(E(0)/E(t_c)) (Huszty & Sakamoto, "A note on the definition of signal-to-noise ratio
+ * of room impulse responses", Acoust. Sci. & Tech. 33(2):117, 2012): the depth of the Schroeder
+ * decay at the Lundeby crosspoint t_c (Lundeby et al., Acustica 81:344, 1995), i.e. where the decay
+ * meets the noise. With the tail compensated, E(t_c) is the decay's energy beyond t_c.
+ *
+ * A metric needs the bottom of its evaluation range at least 10 dB above the noise (ISO 3382-1:2009
+ * and ISO 3382-2:2008, clause 5.3 on the decay range needed; from memory, not checked against the
+ * text): INR ≥ 35 dB for T20 (−25 dB), ≥ 45 dB for T30 (−35 dB); EDT's −10 dB by the same rule
+ * needs 20 dB (common practice, no source).
  */
-export const REQUIRED_PEAK_TO_NOISE_DB: Record<DecayMetric, number> = { edt: 20, t20: 35, t30: 45 };
+export const REQUIRED_INR_DB: Record<DecayMetric, number> = { edt: 20, t20: 35, t30: 45 };
+/** Earlier name of REQUIRED_INR_DB, kept for importers. */
+export const REQUIRED_PEAK_TO_NOISE_DB = REQUIRED_INR_DB;
 
-/** Below this peak-to-noise ratio no decay stands out of the background: energy parameters are not given (common practice, no source). */
-export const MIN_PEAK_TO_NOISE_FOR_ENERGY_DB = 20;
+/** Below this INR no decay stands out of the background: energy parameters are not given (common practice, no source). */
+export const MIN_INR_FOR_ENERGY_DB = 20;
 
 export const METRIC_LABELS: Record<DecayMetric, string> = { edt: 'EDT', t20: 'T20', t30: 'T30' };
 
@@ -38,21 +47,27 @@ export function isFilterBiased(bandwidthHz: number, reverberationTimeS: number, 
 	return bandwidthHz * reverberationTimeS <= criterion;
 }
 
-export function peakToNoiseProblem(metric: DecayMetric, peakToNoiseDb: number): string | null {
-	const needed = REQUIRED_PEAK_TO_NOISE_DB[metric];
-	if (peakToNoiseDb >= needed) return null;
-	return `peak-to-noise ${Math.round(peakToNoiseDb)} dB — ${METRIC_LABELS[metric]} needs ${needed} dB: measure louder or longer`;
+/** INR as shown in messages: one decimal, so a value just short of a requirement never reads as meeting it. */
+export function formatInr(inrDb: number): string {
+	return `${(Math.floor(inrDb * 10) / 10).toFixed(1)} dB`;
 }
 
-export function energyProblem(peakToNoiseDb: number): string {
-	return `peak-to-noise ${Math.round(peakToNoiseDb)} dB — C50, C80, D50 and Ts need ${MIN_PEAK_TO_NOISE_FOR_ENERGY_DB} dB: measure louder or longer`;
+/**
+ * Why a metric is not given when the INR is short of its requirement. `recordEnds`: the response
+ * ended before its decay met the background, so the INR is only a lower bound.
+ */
+export function inrProblem(metric: DecayMetric, inrDb: number, recordEnds = false): string | null {
+	const needed = REQUIRED_INR_DB[metric];
+	if (inrDb >= needed) return null;
+	const bottom = needed - 10;
+	if (recordEnds) {
+		return `the response ends ${formatInr(inrDb)} down its decay, before it meets the background — ${METRIC_LABELS[metric]} needs INR ${needed} dB (its −${bottom} dB 10 dB above the noise): record longer after the sweep or impulse`;
+	}
+	return `INR ${formatInr(inrDb)} — ${METRIC_LABELS[metric]} needs ${needed} dB (its −${bottom} dB 10 dB above the noise): measure louder or longer`;
 }
 
-/** The bottom of an evaluation range must lie this far above the level where the decay meets the noise (ISO 3382-1:2009, from memory). */
-export const NOISE_MARGIN_DB = 10;
-
-export function noiseMarginProblem(metric: DecayMetric, bottomDb: number, decayDepthDb: number): string {
-	return `the decay meets the noise at ${Math.round(decayDepthDb)} dB — ${METRIC_LABELS[metric]} needs it below ${bottomDb - NOISE_MARGIN_DB} dB: measure louder or longer`;
+export function energyProblem(inrDb: number): string {
+	return `INR ${formatInr(inrDb)} — C50, C80, D50 and Ts need ${MIN_INR_FOR_ENERGY_DB} dB: measure louder or longer`;
 }
 
 export function rangeNotReachedProblem(metric: DecayMetric, bottomDb: number): string {

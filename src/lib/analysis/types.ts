@@ -51,6 +51,13 @@ export interface BandMetrics {
 	c80Db: number | null;
 	d50: number | null;
 	tsMs: number | null;
+	/**
+	 * Impulse response-to-noise ratio INR (Huszty & Sakamoto 2012): the depth of the Schroeder decay
+	 * where it meets the background — the figure the T20/T30 requirements are checked against.
+	 * Absent in results of engines before 1.1.
+	 */
+	inrDb?: number | null;
+	/** The INR under its earlier name (engines before 1.1 stored a peak-to-noise ratio here). */
 	peakToNoiseDb: number | null;
 	/** Correlation coefficient of each fit (≈ −1 for a clean decay). */
 	r: DecayMetricValues<number | null>;
@@ -104,9 +111,17 @@ export interface AnalysisCurves {
 
 export interface AnalysisQuality {
 	clipping: ClippingSummary | null;
+	/** Broadband INR (see BandMetrics.inrDb); absent before engine 1.1. */
+	inrDb?: number | null;
+	/** The broadband INR under its earlier name. */
 	peakToNoiseDb: number | null;
-	/** Broadband peak-to-noise below what T30 needs. */
+	/** Broadband INR below what T30 needs. */
 	lowDynamicRange: boolean;
+	/**
+	 * Broadband direct-to-reverberant energy ratio, dB: the first 2.5 ms after the direct-sound peak
+	 * against the rest. Above 0 dB the direct sound dominates EDT and the energy parameters. Absent before 1.1.
+	 */
+	directToReverberantDb?: number | null;
 	/** Nominal centres of the bands whose values are marked biased. */
 	biasedBands: number[];
 }
@@ -127,7 +142,14 @@ export interface AnalysisResult {
 	bandKind: BandKind;
 	/** Start point (ISO 3382-1 A.3.4) of the analysed impulse response. */
 	directSoundS: number;
+	/** Broadband INR (see BandMetrics.inrDb); absent before engine 1.1. */
+	inrDb?: number | null;
+	/** The broadband INR under its earlier name. */
 	peakToNoiseDb: number | null;
+	/**
+	 * The broadband values are those of the span of the analysis bands (lowest band's lower edge to
+	 * the highest's upper edge), so a broadband energy ratio is a ratio of the bands' summed energies.
+	 */
 	broadband: BandMetrics;
 	bands: BandMetrics[];
 	reflections: DetectedReflection[];

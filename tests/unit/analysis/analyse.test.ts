@@ -100,7 +100,7 @@ describe('noise in the decay (Lundeby et al., Acustica 81:344, 1995)', () => {
 		{ t60S: 1.0, noiseDb: -60 },
 		{ t60S: 0.5, noiseDb: -50 },
 		{ t60S: 1.0, noiseDb: -50 }
-	])('T = $t60S s with noise $noiseDb dB below the decay\'s start: T30 still within 5 %, noise level within 2 dB', ({ t60S, noiseDb }) => {
+	])('T = $t60S s with noise $noiseDb dB below the decay\'s start: T30 still within 5 %, noise level and INR within 2 dB', ({ t60S, noiseDb }) => {
 		const x = decayWithNoise(t60S, noiseDb, 3);
 		const result = analyseImpulseResponse(x, SAMPLE_RATE);
 		expect(Math.abs(result.broadband.t30S! / t60S - 1)).toBeLessThan(0.05);
@@ -110,7 +110,10 @@ describe('noise in the decay (Lundeby et al., Acustica 81:344, 1995)', () => {
 		const truthDb = noiseDb - 10 * Math.log10(peak);
 		const broadbandCurve = result.curves.decay.find((curve) => curve.centerHz === 'broadband')!;
 		expect(Math.abs(broadbandCurve.noiseDb! - truthDb)).toBeLessThan(2);
-		expect(Math.abs(result.peakToNoiseDb! + truthDb)).toBeLessThan(2);
+		// INR = 10·lg(E(0)/E(t_c)) (Huszty & Sakamoto, Acoust. Sci. & Tech. 33:117, 2012): the decay's energy
+		// 1/k against the noise's σ²/k beyond the crosspoint — −noiseDb, whatever band the two share.
+		expect(Math.abs(result.inrDb! + noiseDb)).toBeLessThan(2);
+		expect(result.peakToNoiseDb).toBe(result.inrDb);
 	});
 
 	it.each([
@@ -132,17 +135,19 @@ describe('noise in the decay (Lundeby et al., Acustica 81:344, 1995)', () => {
 		const result = analyseImpulseResponse(decayWithNoise(0.8, -40, 6), SAMPLE_RATE);
 		expect(result.broadband.t30S).toBeNull();
 		expect(Math.abs(result.broadband.t20S! / 0.8 - 1)).toBeLessThan(0.05);
-		expect(result.warnings.some((w) => w.band === null && /T30 needs it below −45 dB|T30 needs it below -45 dB/.test(w.message))).toBe(true);
+		// The message quotes the INR it checked, to one decimal (so 44.8 never reads as the 45 dB needed).
+		const message = result.warnings.find((w) => w.band === null && /T30 needs 45 dB/.test(w.message))?.message;
+		expect(message).toMatch(/^broadband: INR (\d+\.\d) dB — T30 needs 45 dB/);
+		expect(Number(/INR (\d+\.\d)/.exec(message!)![1])).toBeCloseTo(Math.floor(result.inrDb! * 10) / 10, 5);
 	});
 
-	it('with noise at −30 dB re peak, T20 and T30 are null and the warnings say why', () => {
-		const x = exponentialNoiseDecay({ t60S: 0.5, durationS: 1.5, sampleRate: SAMPLE_RATE, onsetS: 0.01, noiseDbRePeak: -30, seed: 4 });
-		const result = analyseImpulseResponse(x, SAMPLE_RATE);
+	it('with noise 30 dB below the decay\'s start, T20 and T30 are null and the warnings say why; EDT (INR ≥ 20 dB) is given', () => {
+		const result = analyseImpulseResponse(decayWithNoise(0.5, -30, 4), SAMPLE_RATE);
 		expect(result.broadband.t20S).toBeNull();
 		expect(result.broadband.t30S).toBeNull();
-		expect(result.broadband.edtS).not.toBeNull(); // 30 dB > the 20 dB EDT needs
+		expect(result.broadband.edtS).not.toBeNull(); // INR ≈ 30 dB > the 20 dB EDT needs
 		const messages = result.warnings.filter((w) => w.band === null && w.code === 'insufficient_dynamic_range').map((w) => w.message);
-		expect(messages.some((m) => /broadband: peak-to-noise 3\d dB — T20 needs 35 dB: measure louder or longer/.test(m))).toBe(true);
+		expect(messages.some((m) => /^broadband: INR (29|30)\.\d dB — T20 needs 35 dB \(its −25 dB 10 dB above the noise\): measure louder or longer$/.test(m))).toBe(true);
 		expect(messages.some((m) => /T30 needs 45 dB/.test(m))).toBe(true);
 		expect(result.quality.lowDynamicRange).toBe(true);
 		for (const band of result.bands) {
