@@ -1,7 +1,11 @@
 // Synthetic impulse responses for the demo room, made from formulas: the direct sound, the six
 // first-order image-source reflections, a diffuse tail per octave band decaying with that band's
 // reverberation time, a few lightly damped axial modes, and a background-noise floor.
-// Invented but physically plausible; for the demo only — never used as a check value.
+// Invented but physically plausible where the analysis looks: the diffuse field is there from the
+// first milliseconds, as in a real small room, so its own random peaks compete with the
+// reflections; the direct sound and the reflections fall off as 1/r while the diffuse field does
+// not, so a nearer position hears a stronger direct sound and positions differ in level.
+// For the demo only — never used as a check value.
 import {
 	designButterworthBandpass,
 	filterForwardInPlace,
@@ -23,6 +27,10 @@ export interface Condition {
 }
 
 export const OCTAVES_HZ = [63, 125, 250, 500, 1000, 2000, 4000, 8000];
+
+/** Distance at which the direct sound has amplitude 1 before the output gain. */
+const REFERENCE_DISTANCE_M = 1;
+const OUTPUT_GAIN = 0.5;
 
 export const UNTREATED: Condition = {
 	t60S: UNTREATED_T60_S,
@@ -46,7 +54,7 @@ export function synthesiseResponse(room: RoomBox, source: Point3, mic: Point3, c
 	const lead = 0.005; // a little silence before the direct sound
 	const at = (delayS: number) => Math.round((lead + delayS) * sampleRate);
 
-	// Direct sound and first-order reflections, as short Hann pulses (band-limited impulses).
+	// Direct sound and first-order reflections, as short Hann pulses (band-limited impulses), 1/r re 1 m.
 	const pulse = (index: number, amplitude: number) => {
 		const half = 3;
 		for (let i = -half; i <= half; i++) {
@@ -54,16 +62,18 @@ export function synthesiseResponse(room: RoomBox, source: Point3, mic: Point3, c
 			if (index + i >= 0 && index + i < n) ir[index + i] += amplitude * w;
 		}
 	};
-	pulse(at(directM / c), 1);
+	pulse(at(directM / c), REFERENCE_DISTANCE_M / directM);
 	for (const image of firstOrderImages(room, source, mic, 20)) {
-		pulse(at(image.pathM / c), (condition.reflection[image.surface] * directM) / image.pathM);
+		pulse(at(image.pathM / c), (condition.reflection[image.surface] * REFERENCE_DISTANCE_M) / image.pathM);
 	}
 
-	// Diffuse tail: octave bands of noise, each with its own exponential decay, starting at the
-	// first reflection and rising over a few milliseconds.
+	// Diffuse tail: octave bands of noise, each with its own exponential decay, from the direct
+	// sound on. The reflections' density grows as t² (Kuttruff, Room Acoustics; from memory), so the
+	// diffuse power rises as t² until the mixing time, about √V ms (V in m³; Lindau, Kosanke &
+	// Weinzierl, JAES 60(11), 2012; from memory).
 	const gauss = createSeededGaussian(seed);
-	// The diffuse field builds up after the first reflections (mixing time of a small room, a few ms).
-	const tailStart = at(directM / c) + Math.round(0.006 * sampleRate);
+	const tailStart = at(directM / c);
+	const mixingS = Math.sqrt(room.lengthM * room.widthM * room.heightM) / 1000;
 	const tailLevel = 0.08;
 	OCTAVES_HZ.forEach((fc, b) => {
 		const band = new Float64Array(n);
@@ -72,34 +82,33 @@ export function synthesiseResponse(room: RoomBox, source: Point3, mic: Point3, c
 		const k = (3 * Math.LN10) / condition.t60S[b]; // amplitude decay: 60 dB in T
 		for (let i = tailStart; i < n; i++) {
 			const t = (i - tailStart) / sampleRate;
-			const rise = Math.min(1, t / 0.02);
+			const rise = Math.min(1, t / mixingS);
 			ir[i] += tailLevel * rise * Math.exp(-k * t) * band[i];
 		}
 	});
 
-	// Axial modes below 100 Hz ring longer than the rest of the low end.
+	// Axial modes below 100 Hz ring longer than the rest of the low end. Each builds up over one
+	// round trip between its walls (2d/c), as the reflections that make it add in phase.
 	const kMode = (3 * Math.LN10) / condition.modeT60S;
 	const dims = [room.lengthM, room.widthM, room.heightM];
 	const phase = createSeededGaussian(seed + 1);
 	for (const d of dims) {
+		const buildUpS = (2 * d) / c;
 		for (let order = 1; (order * c) / (2 * d) < 100; order++) {
 			const f = (order * c) / (2 * d);
 			const p0 = phase() * Math.PI;
 			for (let i = tailStart; i < n; i++) {
 				const t = (i - tailStart) / sampleRate;
-				ir[i] += 0.018 * Math.exp(-kMode * t) * Math.sin(2 * Math.PI * f * t + p0);
+				ir[i] += 0.018 * Math.min(1, t / buildUpS) * Math.exp(-kMode * t) * Math.sin(2 * Math.PI * f * t + p0);
 			}
 		}
 	}
 
-	// Background noise about 72 dB below the direct sound's peak.
+	// Background noise about 70 dB below the direct sound's peak at 3 m.
 	const noise = createSeededGaussian(seed + 2);
-	for (let i = 0; i < n; i++) ir[i] += 2.5e-4 * noise();
+	for (let i = 0; i < n; i++) ir[i] += 1e-4 * noise();
 
-	// Scale to −3 dBFS peak.
-	let peak = 0;
-	for (let i = 0; i < n; i++) peak = Math.max(peak, Math.abs(ir[i]));
-	const g = 0.707 / peak;
-	for (let i = 0; i < n; i++) ir[i] *= g;
+	// One gain for every position (a real capture keeps its level): about −3 dBFS for a source 0.7 m away.
+	for (let i = 0; i < n; i++) ir[i] *= OUTPUT_GAIN;
 	return ir;
 }

@@ -17,6 +17,8 @@ export interface DetectedReflection {
 	extraPathM: number;
 	surface: Surface | null;
 	predictedDelayMs: number | null;
+	/** How far the peak stands above the local diffuse level, dB (absent in results before engine 1.1). */
+	aboveDiffuseDb?: number;
 }
 
 /** x along the length from the front wall, y along the width from the left wall, z up from the floor. */
@@ -48,6 +50,51 @@ export interface DetectReflectionsOptions {
 	directGuardMs?: number;
 	/** Span after directIndex searched for the direct-sound peak (default 1 ms; an onset precedes the peak). */
 	directSearchMs?: number;
+	/** Length of the running median that gives the local diffuse level (default 5 ms). */
+	diffuseWindowMs?: number;
+	/** Height above the local diffuse level a peak needs; default from the false-alarm rule (diffuseMarginDb). */
+	marginDb?: number;
+}
+
+/** Running-median window for the local diffuse level: long against a reflection, short against the decay (common practice, no source). */
+const DIFFUSE_WINDOW_MS = 5;
+/** Diffuse-field peaks the detector may take for reflections, per response searched (common practice, no source). */
+const FALSE_ALARMS_PER_RESPONSE = 0.05;
+
+/**
+ * Height above the mean diffuse power that a random peak of a diffuse field reaches only with
+ * `falseAlarms` probability over a search of `searchMs`.
+ *
+ * After the first reflections a room's response is a Gaussian noise under an exponential envelope
+ * (Polack, "Playing billiards in the concert hall", Applied Acoustics 38, 1993; and Kuttruff, Room
+ * Acoustics, on the statistics of reverberant sound fields — both from memory). The squared
+ * envelope of such a signal (real and Hilbert parts independent Gaussians) is exponentially
+ * distributed: P(e² > m·mean) = e^(−m). A search over N independent values — about one per
+ * sample at the Nyquist bandwidth, which overstates N and so errs towards a larger margin — stays
+ * below `falseAlarms` expected false peaks with m = ln(N / falseAlarms).
+ */
+export function diffuseMarginDb(searchMs: number, sampleRate: number, falseAlarms = FALSE_ALARMS_PER_RESPONSE): number {
+	const independent = Math.max(1, (searchMs / 1000) * sampleRate);
+	return 10 * Math.log10(Math.log(independent / falseAlarms));
+}
+
+/**
+ * Mean diffuse power around each index: the running median of the squared envelope over `window`
+ * samples, divided by ln 2 (the median of an exponential distribution is ln 2 times its mean). A
+ * median, unlike a mean, is not raised by the few discrete reflections inside the window. Samples
+ * before `first` (the direct sound and the silence before it) are not diffuse field: the window is
+ * kept after them.
+ */
+function diffuseMeanPower(power: Float64Array, index: number, first: number, window: number): number {
+	const half = Math.floor(window / 2);
+	let from = Math.max(first, index - half);
+	const to = Math.min(power.length, from + window);
+	from = Math.max(first, to - window);
+	const values = power.slice(from, to).sort();
+	if (values.length === 0) return 0;
+	const middle = values.length >> 1;
+	const median = values.length % 2 ? values[middle] : 0.5 * (values[middle - 1] + values[middle]);
+	return median / Math.LN2;
 }
 
 /** Extra samples kept around the analysed span so the envelope is not distorted at its edges. */
@@ -68,13 +115,15 @@ function requirePositive(name: string, value: number): void {
 
 /**
  * Finds early reflections as local maxima of the analytic envelope (the energy–time curve)
- * between direct peak + directGuardMs and direct peak + windowMs.
+ * between direct peak + directGuardMs and direct peak + windowMs that stand clearly above the
+ * local diffuse level: a diffuse field's own random peaks are not reflections.
  *
  * Choices: delays and levels are taken re the direct-sound peak, the largest envelope value
- * within directSearchMs (1 ms) after directIndex (an onset index precedes the peak). Peaks are kept if at or
- * above thresholdDb; among peaks closer than minSeparationMs only the strongest survives,
- * which also removes the ripple the Hilbert transform puts beside a sharp peak. Positions
- * are whole samples. The result is sorted by delay.
+ * within directSearchMs (1 ms) after directIndex (an onset index precedes the peak). A peak is kept
+ * if it is at or above thresholdDb re the direct sound and at least marginDb above the local mean
+ * diffuse power (running median, diffuseMeanPower; margin from diffuseMarginDb). Among peaks closer
+ * than minSeparationMs only the strongest survives, which also removes the ripple the Hilbert
+ * transform puts beside a sharp peak. Positions are whole samples. The result is sorted by delay.
  */
 export function detectReflections(
 	ir: Float64Array,
@@ -92,6 +141,12 @@ export function detectReflections(
 	const minSeparationMs = options.minSeparationMs ?? 0.5;
 	const directGuardMs = options.directGuardMs ?? 0.5;
 	const directSearchMs = options.directSearchMs ?? 1;
+	const diffuseWindowMs = options.diffuseWindowMs ?? DIFFUSE_WINDOW_MS;
+	requirePositive('diffuseWindowMs', diffuseWindowMs);
+	const marginDb = options.marginDb ?? diffuseMarginDb(windowMs - directGuardMs, sampleRate);
+	if (!Number.isFinite(marginDb) || marginDb < 0) {
+		throw new AnalysisInputError('invalid_option', `marginDb must be a finite number ≥ 0 dB, got ${marginDb}`);
+	}
 	requirePositive('windowMs', windowMs);
 	if (!Number.isFinite(directSearchMs) || directSearchMs < 0) {
 		throw new AnalysisInputError('invalid_option', `directSearchMs must be a finite number ≥ 0, got ${directSearchMs}`);
@@ -123,25 +178,40 @@ export function detectReflections(
 
 	const first = directPeak + Math.max(1, samples(directGuardMs));
 	const last = Math.min(directPeak + samples(windowMs), spanEnd - 2);
-	const candidates: { index: number; levelDb: number }[] = [];
+	const power = new Float64Array(envelope.length);
+	for (let i = 0; i < envelope.length; i++) power[i] = envelope[i] * envelope[i];
+	const diffuseWindow = Math.max(3, samples(diffuseWindowMs));
+	const margin = 10 ** (marginDb / 10);
+	const candidates: { index: number; levelDb: number; aboveDiffuseDb: number }[] = [];
 	for (let i = first; i <= last; i++) {
 		const value = at(i);
 		if (!(value >= at(i - 1) && value > at(i + 1))) continue;
 		const levelDb = 20 * Math.log10(value / directLevel);
-		if (levelDb >= thresholdDb) candidates.push({ index: i, levelDb });
+		if (levelDb < thresholdDb) continue;
+		const diffuse = diffuseMeanPower(power, i - spanStart, first - spanStart, diffuseWindow);
+		const aboveDiffuseDb = diffuse > 0 ? 10 * Math.log10((value * value) / diffuse) : Infinity;
+		if (value * value >= margin * diffuse) candidates.push({ index: i, levelDb, aboveDiffuseDb });
 	}
 
 	const separation = Math.max(1, samples(minSeparationMs));
-	const kept: { index: number; levelDb: number }[] = [];
+	const kept: typeof candidates = [];
 	for (const candidate of candidates.sort((a, b) => b.levelDb - a.levelDb)) {
 		if (kept.every((peak) => Math.abs(peak.index - candidate.index) >= separation)) kept.push(candidate);
 	}
 
 	return kept
 		.sort((a, b) => a.index - b.index)
-		.map(({ index, levelDb }) => {
+		.map(({ index, levelDb, aboveDiffuseDb }) => {
 			const delayS = (index - directPeak) / sampleRate;
-			return { delayMs: delayS * 1000, levelDb, extraPathM: delayS * c, surface: null, predictedDelayMs: null };
+			return {
+				delayMs: delayS * 1000,
+				levelDb,
+				extraPathM: delayS * c,
+				surface: null,
+				predictedDelayMs: null,
+				// Capped so the result stays plain JSON where no diffuse field is there to measure against.
+				aboveDiffuseDb: Math.min(aboveDiffuseDb, 200)
+			};
 		});
 }
 

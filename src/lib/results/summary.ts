@@ -12,8 +12,11 @@ export const NOTABLE_REVERBERATION_CHANGE = 0.05;
 /** C80 change worth a sentence: its JND, 1 dB (ISO 3382-1:2009 Annex A, from memory). */
 export const NOTABLE_CLARITY_CHANGE_DB = 1;
 export const MAX_SUMMARY_SENTENCES = 8;
-/** Reflections counted down to this level re the direct sound (the engine's default threshold). */
-const REFLECTION_FLOOR_DB = -20;
+/**
+ * Reflections counted: those within 15 ms of the direct sound and less than 10 dB below it, the ones
+ * ITU-R BS.1116-3 asks a listening room to keep at least 10 dB down (from memory).
+ */
+const STRONG_REFLECTION = { withinMs: 15, belowDirectDb: 10 };
 /** Range over which the C80 change is averaged for the sentence about clarity. */
 const CLARITY_RANGE_HZ = { low: 500, high: 2000 };
 
@@ -175,11 +178,12 @@ function matchedPositions(model: ComparisonModel, side: 'baseline' | 'treated'):
 
 function reflectionSentence(model: ComparisonModel): string | null {
 	const perPosition = (positions: PositionResult[]) =>
-		positions.length === 0 ? null : mean(positions.map((p) => p.reflections.filter((r) => r.levelDb >= REFLECTION_FLOOR_DB).length));
+		positions.length === 0 ? null : mean(positions.map((p) => p.reflections.filter((r) => r.delayMs <= STRONG_REFLECTION.withinMs && r.levelDb > -STRONG_REFLECTION.belowDirectDb).length));
 	const before = perPosition(matchedPositions(model, 'baseline'));
 	const after = perPosition(matchedPositions(model, 'treated'));
 	if (before === null || after === null || (before === 0 && after === 0)) return null;
-	return `Early reflections within ${Math.abs(REFLECTION_FLOOR_DB)} dB of the direct sound: ${formatCount(before)} before, ${formatCount(after)} after (average per position).`;
+	const { withinMs, belowDirectDb } = STRONG_REFLECTION;
+	return `Strong early reflections (within ${withinMs} ms, less than ${belowDirectDb} dB below the direct sound): ${formatCount(before)} before, ${formatCount(after)} after (average per position).`;
 }
 
 function positionSentence(model: ComparisonModel): string {

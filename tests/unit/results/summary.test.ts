@@ -160,11 +160,12 @@ describe('plainSummary: clarity, reflections, positions', () => {
 		expect(clarity).toEqual(sentence === null ? [] : [sentence]);
 	});
 
-	it('counts early reflections within 20 dB of the direct sound, per matched position', () => {
+	it('counts reflections within 15 ms and less than 10 dB below the direct sound (ITU-R BS.1116-3, from memory), per matched position', () => {
 		const bands = [{ centerHz: 500, t30S: 0.5 }];
+		// The factory puts reflection i at 2 + i ms.
 		const baseline = makeSession([
-			{ label: 'P1', bands, reflectionLevelsDb: [-3, -6, -10, -15, -19, -25] }, // 5 within 20 dB
-			{ label: 'P2', bands, reflectionLevelsDb: [-4, -8, -12, -16, -20] }, // 5 (−20 dB counts)
+			{ label: 'P1', bands, reflectionLevelsDb: [-3, -6, -10, -15, -19, -25] }, // 2 (−10 dB is 10 dB below: not counted)
+			{ label: 'P2', bands, reflectionLevelsDb: [-4, -8, -12, -16, -20, ...Array(10).fill(-30), -2] }, // 2 (−2 dB at 17 ms is too late)
 			{ label: 'P9', bands, reflectionLevelsDb: [-1, -1, -1, -1, -1, -1, -1, -1] } // not matched
 		]);
 		const treated = makeSession([
@@ -172,8 +173,8 @@ describe('plainSummary: clarity, reflections, positions', () => {
 			{ label: 'P2', bands, reflectionLevelsDb: [-9, -14] }
 		]);
 		const summary = compareSessions(otherRoom, baseline, treated).summary;
-		expect(summary).toContain('Early reflections within 20 dB of the direct sound: 5 before, 2 after (average per position).');
-		expect(summary[summary.length - 2]).toMatch(/^Early reflections/);
+		expect(summary).toContain('Strong early reflections (within 15 ms, less than 10 dB below the direct sound): 2 before, 0.5 after (average per position).');
+		expect(summary[summary.length - 2]).toMatch(/^Strong early reflections/);
 	});
 
 	it.each([
