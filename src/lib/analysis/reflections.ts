@@ -62,8 +62,9 @@ const DIFFUSE_WINDOW_MS = 5;
 const FALSE_ALARMS_PER_RESPONSE = 0.05;
 
 /**
- * Height above the mean diffuse power that a random peak of a diffuse field reaches only with
- * `falseAlarms` probability over a search of `searchMs`.
+ * Height above the local diffuse level that a random peak of a diffuse field reaches only with
+ * `falseAlarms` probability over a search of `searchMs`, the level estimated by a running median
+ * of `windowSamples` values.
  *
  * After the first reflections a room's response is a Gaussian noise under an exponential envelope
  * (Polack, "Playing billiards in the concert hall", Applied Acoustics 38, 1993; and Kuttruff, Room
@@ -71,11 +72,14 @@ const FALSE_ALARMS_PER_RESPONSE = 0.05;
  * envelope of such a signal (real and Hilbert parts independent Gaussians) is exponentially
  * distributed: P(e² > m·mean) = e^(−m). A search over N independent values — about one per
  * sample at the Nyquist bandwidth, which overstates N and so errs towards a larger margin — stays
- * below `falseAlarms` expected false peaks with m = ln(N / falseAlarms).
+ * below `falseAlarms` expected false peaks with m = ln(N / falseAlarms). The mean itself comes from
+ * a median of M values, whose relative standard error is about 1/(ln 2·√M) for an exponential
+ * distribution (a sample median's variance is 1/(4M·f(median)²); from memory): twice that is added.
  */
-export function diffuseMarginDb(searchMs: number, sampleRate: number, falseAlarms = FALSE_ALARMS_PER_RESPONSE): number {
+export function diffuseMarginDb(searchMs: number, sampleRate: number, windowSamples: number, falseAlarms = FALSE_ALARMS_PER_RESPONSE): number {
 	const independent = Math.max(1, (searchMs / 1000) * sampleRate);
-	return 10 * Math.log10(Math.log(independent / falseAlarms));
+	const medianError = 1 / (Math.LN2 * Math.sqrt(Math.max(1, windowSamples)));
+	return 10 * Math.log10(Math.log(independent / falseAlarms)) + 10 * Math.log10(1 + 2 * medianError);
 }
 
 /**
@@ -143,7 +147,8 @@ export function detectReflections(
 	const directSearchMs = options.directSearchMs ?? 1;
 	const diffuseWindowMs = options.diffuseWindowMs ?? DIFFUSE_WINDOW_MS;
 	requirePositive('diffuseWindowMs', diffuseWindowMs);
-	const marginDb = options.marginDb ?? diffuseMarginDb(windowMs - directGuardMs, sampleRate);
+	const diffuseWindow = Math.max(3, Math.round((diffuseWindowMs * sampleRate) / 1000));
+	const marginDb = options.marginDb ?? diffuseMarginDb(windowMs - directGuardMs, sampleRate, diffuseWindow);
 	if (!Number.isFinite(marginDb) || marginDb < 0) {
 		throw new AnalysisInputError('invalid_option', `marginDb must be a finite number ≥ 0 dB, got ${marginDb}`);
 	}
@@ -180,7 +185,6 @@ export function detectReflections(
 	const last = Math.min(directPeak + samples(windowMs), spanEnd - 2);
 	const power = new Float64Array(envelope.length);
 	for (let i = 0; i < envelope.length; i++) power[i] = envelope[i] * envelope[i];
-	const diffuseWindow = Math.max(3, samples(diffuseWindowMs));
 	const margin = 10 ** (marginDb / 10);
 	const candidates: { index: number; levelDb: number; aboveDiffuseDb: number }[] = [];
 	for (let i = first; i <= last; i++) {
