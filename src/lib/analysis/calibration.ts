@@ -149,16 +149,14 @@ function zeroCrossingFrequencyHz(data: Float64Array, start: number, end: number,
 	return count > 1 ? ((count - 1) * sampleRate) / (last - first) : NaN;
 }
 
-/** The third-octave band (50 Hz–10 kHz) holding most of the energy, for the message about a wrong tone. */
-function strongestThirdOctaveHz(samples: Float64Array, start: number, end: number, sampleRate: number): number {
+/** Third-octave bands (50 Hz–10 kHz) by energy, strongest first, for the message about a wrong tone. */
+function bandsByEnergy(samples: Float64Array, start: number, end: number, sampleRate: number): number[] {
 	const segment = samples.subarray(start, end);
-	let best = { nominalHz: 0, energy: -1 };
-	for (const band of analysisBands('third')) {
-		if (band.upperHz * 1.2 >= sampleRate / 2) continue;
-		const energy = meanSquare(bandSignal(segment, band.lowerHz, band.upperHz, sampleRate), 0, segment.length);
-		if (energy > best.energy) best = { nominalHz: band.nominalHz, energy };
-	}
-	return best.nominalHz;
+	return analysisBands('third')
+		.filter((band) => band.upperHz * 1.2 < sampleRate / 2)
+		.map((band) => ({ nominalHz: band.nominalHz, energy: meanSquare(bandSignal(segment, band.lowerHz, band.upperHz, sampleRate), 0, segment.length) }))
+		.sort((a, b) => b.energy - a.energy)
+		.map((band) => band.nominalHz);
 }
 
 const seconds = (s: number) => `${s.toFixed(1)} s`;
@@ -233,11 +231,13 @@ export function calibrateFromCalibrator(
 	const toneDc = mean(signal, innerStart, innerEnd);
 	const toneFraction = meanSquare(toneBand, innerStart, innerEnd) / meanSquare(signal, innerStart, innerEnd, toneDc);
 	if (!(toneFraction >= MIN_BAND_ENERGY_FRACTION)) {
-		const strongest = strongestThirdOctaveHz(signal, innerStart, innerEnd, sampleRate);
+		const [strongest, second] = bandsByEnergy(signal, innerStart, innerEnd, sampleRate);
+		const share = `${percent(toneFraction)} of the energy is in the 1 kHz third-octave band (at least ${percent(MIN_BAND_ENERGY_FRACTION)} is needed)`;
 		throw new CalibrationError(
 			'not_1khz_tone',
-			`not a 1 kHz calibrator tone: only ${percent(toneFraction)} of the energy is in the 1 kHz third-octave band ` +
-				`(at least ${percent(MIN_BAND_ENERGY_FRACTION)} is needed); the strongest band is ${bandLabel(strongest)}`
+			strongest === CALIBRATOR_FREQUENCY_HZ
+				? `not a clean 1 kHz calibrator tone: only ${share}; there is too much noise or hum besides it, most at ${bandLabel(second)}`
+				: `not a 1 kHz calibrator tone: only ${share}; the strongest band is ${bandLabel(strongest)}`
 		);
 	}
 
