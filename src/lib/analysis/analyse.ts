@@ -258,7 +258,11 @@ function analyse(
 	const spanLead = bank.span.padding;
 	const broadbandSquared = filtered(spanLead, full.length, (from, zeros) => bank.filterSpanZeroPhase(full, from, full.length, scratch, zeros));
 	const broadbandAnalysis = clock.time('decay', () =>
-		analyseDecay(broadbandSquared, sampleRate, { startIndex: spanLead, directEnd: direct - start + Math.round(DIRECT_SOUND_WINDOW_S * sampleRate) })
+		analyseDecay(broadbandSquared, sampleRate, {
+			startIndex: spanLead,
+			signalBandwidthHz: bank.span.bandwidthHz,
+			directEnd: direct - start + Math.round(DIRECT_SOUND_WINDOW_S * sampleRate)
+		})
 	);
 	collectWarnings(null, broadbandAnalysis, warnings);
 	directSoundNote(broadbandAnalysis.directToReverberantDb, warnings);

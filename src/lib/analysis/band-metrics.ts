@@ -5,7 +5,7 @@
  */
 import { curvaturePercent, EVALUATION_RANGES, fitDecayRange, type DecayFit, type DecayMetric } from './decay-fit';
 import { energyParameters, type EnergyParameters } from './energy';
-import { estimateNoiseFloor, type NoiseFloorEstimate } from './lundeby';
+import { estimateNoiseFloor, noiseStillFalling, type NoiseFloorEstimate } from './lundeby';
 import {
 	curvatureProblem,
 	CURVATURE_LIMIT_PERCENT,
@@ -56,6 +56,8 @@ export interface DecayAnalysisOptions {
 	biasCriterion?: number;
 	/** End of the direct sound, in samples after the start point: its energy against the rest is reported. */
 	directEnd?: number;
+	/** Bandwidth of the signal, for how steady its noise can look (default: the band's, else half the sample rate). */
+	signalBandwidthHz?: number;
 }
 
 /** Squares a signal from `start` on, into a new array. */
@@ -83,7 +85,9 @@ export function analyseDecay(withPreOnset: Float64Array, sampleRate: number, opt
 	// With the tail compensated, the curve ends at the decay's depth below its start where it meets the noise: the INR.
 	const decayDepthDb = decayLevelDb(decay[decay.length - 1]);
 	const inrDb = slope === null ? null : -decayDepthDb;
-	const recordEndsInDecay = slope !== null && noise.crosspointIndex >= squared.length;
+	const signalBandwidthHz = options.signalBandwidthHz ?? options.bandwidthHz ?? sampleRate / 2;
+	const recordEndsInDecay =
+		slope !== null && (noise.crosspointIndex >= squared.length || noiseStillFalling(squared, noise, sampleRate, signalBandwidthHz));
 	const fits = { edt: null, t20: null, t30: null } as Record<DecayMetric, DecayFit | null>;
 	if (slope === null || inrDb === null) {
 		problems.push({ code: 'no_decay_found', message: 'no decay above the background was found: check the capture' });

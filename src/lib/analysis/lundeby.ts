@@ -16,6 +16,8 @@ export interface NoiseFloorEstimate {
 	lateSlopeDbPerS: number | null;
 	/** Power of the late decay line at the crosspoint (equals the noise unless the record ends first). */
 	powerAtCrosspoint: number;
+	/** First index of the stretch the noise was averaged over (to the end of the record). */
+	noiseStartIndex: number;
 	iterations: number;
 	converged: boolean;
 }
@@ -135,6 +137,7 @@ export function estimateNoiseFloor(squared: Float64Array, sampleRate: number, op
 		crosspointIndex: Math.max(1, lastNonZero),
 		lateSlopeDbPerS: null,
 		powerAtCrosspoint: noisePower,
+		noiseStartIndex: latestNoiseStart,
 		iterations: 0,
 		converged: false
 	});
@@ -161,10 +164,11 @@ export function estimateNoiseFloor(squared: Float64Array, sampleRate: number, op
 	const maxIterations = options.maxIterations ?? DEFAULT_MAX_ITERATIONS;
 	let iterations = 0;
 	let converged = false;
+	let noiseStart = latestNoiseStart;
 	while (iterations < maxIterations) {
 		iterations++;
 		const noiseStartS = crosspointS + NOISE_START_PAST_CROSSPOINT_DB / -line.slopeDbPerS;
-		const noiseStart = Math.min(latestNoiseStart, Math.round(noiseStartS * sampleRate));
+		noiseStart = Math.min(latestNoiseStart, Math.round(noiseStartS * sampleRate));
 		noisePower = Math.max(meanFrom(squared, noiseStart), floorPower);
 		noiseDb = 10 * Math.log10(noisePower);
 
@@ -193,7 +197,32 @@ export function estimateNoiseFloor(squared: Float64Array, sampleRate: number, op
 		crosspointIndex,
 		lateSlopeDbPerS: line.slopeDbPerS,
 		powerAtCrosspoint: 10 ** (lineDbAtCrosspoint / 10),
+		noiseStartIndex: noiseStart,
 		iterations,
 		converged
 	};
+}
+
+/**
+ * Whether the stretch the noise was taken from is still falling: its second half below its first
+ * by more than half of what the late decay line falls over that time, more than 3σ (σ the scatter
+ * of a mean of B·t independent squared Gaussian values, 10·lg e·√(1/(B·t)) per half) and more than
+ * 1 dB (common practice, no source). Then the record ended inside the decay and the "noise" is
+ * decay: the INR found is only a lower bound.
+ */
+export function noiseStillFalling(squared: Float64Array, estimate: NoiseFloorEstimate, sampleRate: number, bandwidthHz: number): boolean {
+	if (estimate.lateSlopeDbPerS === null) return false;
+	const start = Math.max(0, Math.min(estimate.noiseStartIndex, squared.length - 2));
+	const middle = Math.floor((start + squared.length) / 2);
+	let first = 0;
+	let second = 0;
+	for (let i = start; i < middle; i++) first += squared[i];
+	for (let i = middle; i < squared.length; i++) second += squared[i];
+	first /= Math.max(1, middle - start);
+	second /= Math.max(1, squared.length - middle);
+	if (!(first > 0 && second > 0)) return false;
+	const halfS = (squared.length - middle) / sampleRate;
+	const sigmaDb = 10 * Math.LOG10E * Math.sqrt(1 / Math.max(1, bandwidthHz * halfS));
+	const decayOverHalvesDb = -estimate.lateSlopeDbPerS * ((squared.length - start) / 2 / sampleRate);
+	return 10 * Math.log10(first / second) > Math.max(1, 3 * sigmaDb, 0.5 * decayOverHalvesDb);
 }
