@@ -5,6 +5,8 @@
  *
  * --reference: the file is a recorded sweep and <sweep.wav> the sweep that was played.
  * --channel: 0-based channel of the file. Untrusted values are null, with a warning saying why.
+ * inrDb (also under its earlier name peakToNoiseDb): the impulse response-to-noise ratio behind the
+ * T20/T30 requirements; broadband values are those of the span of the bands.
  * On bad input: exit code 1, one line on stderr, nothing on stdout.
  */
 import { readFileSync } from 'node:fs';
@@ -81,7 +83,8 @@ function metrics(band: BandMetrics) {
 		c50Db: round(band.c50Db, 2),
 		c80Db: round(band.c80Db, 2),
 		d50: round(band.d50, 3),
-		tsMs: round(band.tsMs, 1)
+		tsMs: round(band.tsMs, 1),
+		inrDb: round(band.inrDb ?? null, 2)
 	};
 }
 
@@ -90,12 +93,19 @@ function summary(result: AnalysisResult) {
 		sampleRate: result.sampleRate,
 		channels: result.channels,
 		durationS: round(result.durationS, 3),
+		// The INR (impulse response-to-noise ratio) under its earlier name; inrDb below is the same figure.
 		peakToNoiseDb: round(result.peakToNoiseDb, 2),
 		directSoundS: round(result.directSoundS, 4),
 		broadband: metrics(result.broadband),
 		bands: result.bands.map((band) => ({ centerHz: band.centerHz, ...metrics(band) })),
-		reflections: result.reflections.map((reflection) => ({ delayMs: round(reflection.delayMs, 2), levelDb: round(reflection.levelDb, 2) })),
-		warnings: result.warnings.map((warning) => warning.message)
+		reflections: result.reflections.map((reflection) => ({
+			delayMs: round(reflection.delayMs, 2),
+			levelDb: round(reflection.levelDb, 2),
+			aboveDiffuseDb: round(reflection.aboveDiffuseDb ?? null, 2)
+		})),
+		warnings: result.warnings.map((warning) => warning.message),
+		inrDb: round(result.inrDb ?? null, 2),
+		directToReverberantDb: round(result.quality.directToReverberantDb ?? null, 2)
 	};
 }
 

@@ -5,4 +5,4 @@
  * fields or warnings without changing existing numbers; patch for fixes that change no stored
  * number beyond its rounding.
  */
-export const ENGINE_VERSION = '1.0.0';
+export const ENGINE_VERSION = '1.1.0';
