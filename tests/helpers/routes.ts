@@ -1,6 +1,8 @@
 // The app's route list, read from src/routes, so access tests cover every route that exists
-// (a new route is covered the day it is added).
-import { readdirSync, readFileSync } from 'node:fs';
+// (a new route is covered the day it is added). Form actions and HTTP methods are read from the
+// route modules themselves (imported through Vite, as the app loads them), so an action or a
+// handler is found however it is written.
+import { readdirSync } from 'node:fs';
 import { join, relative, sep } from 'node:path';
 
 export interface RouteInfo {
@@ -12,6 +14,8 @@ export interface RouteInfo {
 }
 
 const ROUTES_DIR = join(import.meta.dirname, '../../src/routes');
+const HTTP_METHODS = ['GET', 'POST', 'PUT', 'PATCH', 'DELETE', 'OPTIONS'];
+const ROUTE_FILES = ['+page.svelte', '+server.ts', '+page.server.ts'];
 
 function walk(dir: string, out: string[] = []): string[] {
 	for (const e of readdirSync(dir, { withFileTypes: true })) {
@@ -22,11 +26,12 @@ function walk(dir: string, out: string[] = []): string[] {
 	return out;
 }
 
-export function listRoutes(): RouteInfo[] {
+/** Every route under src/routes; call it from a Vite-run test (it imports the route modules). */
+export async function listRoutes(): Promise<RouteInfo[]> {
 	const routes = new Map<string, RouteInfo>();
 	for (const file of walk(ROUTES_DIR)) {
 		const name = file.split(sep).pop()!;
-		if (!['+page.svelte', '+server.ts', '+page.server.ts'].includes(name)) continue;
+		if (!ROUTE_FILES.includes(name)) continue;
 		const dir = relative(ROUTES_DIR, file).split(sep).slice(0, -1);
 		// Route groups "(name)" do not appear in the URL.
 		const segments = dir.filter((s) => !/^\(.+\)$/.test(s));
@@ -35,13 +40,10 @@ export function listRoutes(): RouteInfo[] {
 		const kind = name === '+server.ts' ? 'endpoint' : 'page';
 		const key = `${kind}:${path}`;
 		const info = routes.get(key) ?? { path, params, kind, methods: kind === 'page' ? ['GET'] : [], actions: [] };
-		const source = readFileSync(file, 'utf8');
-		if (name === '+server.ts') {
-			info.methods = [...source.matchAll(/export const (GET|POST|PUT|PATCH|DELETE)\b/g)].map((m) => m[1]);
-		}
-		if (name === '+page.server.ts') {
-			const block = source.match(/export const actions = \{([\s\S]*)\} satisfies Actions/);
-			if (block) info.actions = [...block[1].matchAll(/^\t([a-zA-Z]+): async/gm)].map((m) => m[1]);
+		if (name !== '+page.svelte') {
+			const module = (await import(/* @vite-ignore */ file)) as Record<string, unknown>;
+			if (name === '+server.ts') info.methods = HTTP_METHODS.filter((m) => typeof module[m] === 'function');
+			else info.actions = Object.keys((module.actions as Record<string, unknown> | undefined) ?? {});
 		}
 		routes.set(key, info);
 	}

@@ -37,13 +37,22 @@ async function announce(client: Client, sessionId: number, wav: Uint8Array, extr
 	});
 }
 
-async function uploadCapture(client: Client, sessionId: number, wav: Uint8Array, extra: Record<string, unknown> = {}): Promise<{ id: number; confirm: Response }> {
+async function uploadCapture(
+	client: Client,
+	sessionId: number,
+	wav: Uint8Array,
+	extra: Record<string, unknown> = {}
+): Promise<{ id: number; objectKey: string; confirm: Response }> {
 	const res = await announce(client, sessionId, wav, extra);
 	expect(res.status, await res.clone().text()).toBe(201);
 	const a = (await res.json()) as Announced;
 	const put = await fetch(a.upload.url, { method: 'PUT', headers: a.upload.headers, body: wav as Uint8Array<ArrayBuffer> });
 	expect(put.status).toBe(200);
-	return { id: a.capture.id, confirm: await client.request('POST', `/api/captures/${a.capture.id}/uploaded`, { headers: { accept: 'application/json' } }) };
+	// The object is in the store under the capture's key before the upload is confirmed.
+	const { object_key: objectKey } = await k('captures').where({ id: a.capture.id }).first('object_key');
+	expect((await s3.head(objectKey))?.size).toBe(wav.byteLength);
+	const confirm = await client.request('POST', `/api/captures/${a.capture.id}/uploaded`, { headers: { accept: 'application/json' } });
+	return { id: a.capture.id, objectKey, confirm };
 }
 
 /** Run queued jobs in this process until the given captures are settled. */
@@ -204,14 +213,14 @@ describe('bad input is refused and leaves nothing behind', () => {
 	])('refuses %s at upload and removes its row and object', async (_, make, text) => {
 		const before = await countRows();
 		const wav = make();
-		const { id, confirm } = await uploadCapture(acoustician, tree.sessionId, wav, { filename: 'bad.wav' });
+		const { id, objectKey, confirm } = await uploadCapture(acoustician, tree.sessionId, wav, { filename: 'bad.wav' });
 		expect(confirm.status).toBe(422);
 		expect(((await confirm.json()) as { message: string }).message).toContain(text);
 		expect(await k('captures').where({ id }).first()).toBeUndefined();
 		expect(await countRows()).toBe(before);
 		expect(await k('audit_events').where({ action: 'capture.refused', entity_id: id }).first()).toBeTruthy();
-		const objects = await k('audit_events').where({ action: 'capture.refused', entity_id: id }).first();
-		expect(objects).toBeTruthy();
+		// The object is gone from the store too: HEAD answers NotFound.
+		expect(await s3.head(objectKey)).toBeNull();
 	});
 
 	it('refuses a file whose size differs from what was announced, and removes it', async () => {
