@@ -1,7 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import {
 	capitalise,
+	formatArea,
 	formatBand,
+	formatCoefficient,
 	formatCount,
 	formatDb,
 	formatHz,
@@ -12,9 +14,12 @@ import {
 	formatNumber,
 	formatPercent,
 	formatRange,
+	formatRoomSize,
+	formatRoomSizeBare,
 	formatSampleRate,
 	formatSeconds,
 	formatSigned,
+	formatVolume,
 	MISSING,
 	roundSignificant
 } from '../../src/lib/format';
@@ -225,5 +230,20 @@ describe('roundSignificant', () => {
 		expect(roundSignificant(31.6227766, 5)).toBe(31.623);
 		expect(() => roundSignificant(Number.NaN)).toThrow(RangeError);
 		expect(() => roundSignificant(1, 0)).toThrow(RangeError);
+	});
+});
+
+describe('room geometry and coefficients', () => {
+	it('writes a room to the centimetre, length × width × height', () => {
+		expect(formatRoomSize({ lengthM: 5.2, widthM: 3.805, heightM: 2.6 })).toBe('5.20 × 3.81 × 2.60 m');
+		expect(formatRoomSizeBare({ lengthM: 12, widthM: 7.5, heightM: 3 })).toBe('12.00 × 7.50 × 3.00');
+	});
+
+	it('writes volumes and areas to a tenth and coefficients to two decimals', () => {
+		expect(formatVolume(51.44)).toBe('51.4 m³');
+		expect(formatArea(38.25)).toBe('38.3 m²');
+		// Two decimals, as absorption coefficients are tabulated (ISO 354 reports αs to two decimals; from memory).
+		expect(formatCoefficient(0.347)).toBe('0.35');
+		expect(formatCoefficient(1)).toBe('1.00');
 	});
 });

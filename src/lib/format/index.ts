@@ -3,3 +3,4 @@ export { formatCount, formatNumber, formatPercent, formatSigned, MINUS, MISSING,
 export { DB_DECIMALS, formatDb, formatMs, formatMsRange, formatSeconds, SECONDS_DECIMALS } from './quantities';
 export { formatBand, formatHz, formatHzAxis, formatHzRange, formatSampleRate } from './frequency';
 export { capitalise, formatList, formatRange } from './text';
+export { formatArea, formatCoefficient, formatRoomSize, formatRoomSizeBare, formatVolume, type RoomSize } from './room';

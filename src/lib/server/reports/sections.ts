@@ -5,10 +5,11 @@ import {
 	formatDb,
 	formatHzRange,
 	formatMsRange,
-	formatNumber,
 	formatRange,
+	formatRoomSize,
 	formatSeconds,
 	formatSigned,
+	formatVolume,
 	MISSING
 } from '../../format';
 import type { ProblemBandView, SessionSummary } from '../../results/types';
@@ -55,7 +56,7 @@ export function drawTitleBlock(pen: ReportPen, report: ReportContent): void {
 	pen.gap(2);
 	pen.use('prose', TYPE.subtitle, COLOURS.inkSoft).flow(room.name);
 	pen.gap(12);
-	const dimensions = `${formatNumber(room.lengthM, 2)} × ${formatNumber(room.widthM, 2)} × ${formatNumber(room.heightM, 2)} m`;
+	const dimensions = formatRoomSize(room);
 	drawFactPanel(pen, [
 		[
 			{ label: 'Project', value: orMissing(report.projectName) },
@@ -65,7 +66,7 @@ export function drawTitleBlock(pen: ReportPen, report: ReportContent): void {
 		],
 		[
 			{ label: 'Room (L×W×H)', value: dimensions, face: 'mono' },
-			{ label: 'Volume', value: `${formatNumber(room.volumeM3, 1)} m³`, face: 'mono' },
+			{ label: 'Volume', value: formatVolume(room.volumeM3), face: 'mono' },
 			{ label: 'Use', value: orMissing(room.roomUse) },
 			{ label: 'Before', value: visitFact(baseline) },
 			{ label: 'After', value: visitFact(treated) },
