@@ -15,7 +15,7 @@ import type { CaptureRow } from '../queries/captures';
 import { ensurePosition, isPositionOfSession } from '../queries/positions';
 import { clearAnalysedNotice } from '../queries/sessions';
 import { isSweepOfOrganization } from '../queries/sweeps';
-import { HEADER_PROBE_BYTES, inspectWavHeader, WavHeaderError, type WavHeader } from './wav-header';
+import { readWavHeader, WavHeaderError, type WavHeader } from './wav-header';
 import type { CreateCaptureInput, updateCaptureSchema } from '../../schemas/captures';
 import type { Scope } from '../auth/access';
 
@@ -93,10 +93,10 @@ async function checkObject(s: Storage, key: string, declaredSize: number | null,
 		throw new Problem(422, `The stored file is ${head.size} bytes but ${declaredSize} were announced: upload it again.`);
 	}
 	if (head.size > config().UPLOAD_MAX_BYTES) throw new Problem(413, 'The file is larger than the upload limit.');
-	const bytes = await s.getBytes(key, { start: 0, end: Math.min(head.size, HEADER_PROBE_BYTES) - 1 });
+	const source = { size: head.size, read: (offset: number, length: number) => s.getBytes(key, { start: offset, end: offset + length - 1 }) };
 	let header: WavHeader;
 	try {
-		header = inspectWavHeader(bytes, head.size, { maxDurationS: config().ANALYSIS_MAX_DURATION_S });
+		header = await readWavHeader(source, { maxDurationS: config().ANALYSIS_MAX_DURATION_S });
 	} catch (e) {
 		if (e instanceof WavHeaderError) throw new Problem(422, e.message);
 		throw e;
