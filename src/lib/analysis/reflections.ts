@@ -17,7 +17,7 @@ export interface DetectedReflection {
 	extraPathM: number;
 	surface: Surface | null;
 	predictedDelayMs: number | null;
-	/** How far the peak stands above the local diffuse level, dB (absent in results before engine 1.1). */
+	/** How far the peak stands above the local diffuse level, dB (absent in results before engine 2.0). */
 	aboveDiffuseDb?: number;
 }
 

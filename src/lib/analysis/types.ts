@@ -54,10 +54,10 @@ export interface BandMetrics {
 	/**
 	 * Impulse response-to-noise ratio INR (Huszty & Sakamoto 2012): the depth of the Schroeder decay
 	 * where it meets the background — the figure the T20/T30 requirements are checked against.
-	 * Absent in results of engines before 1.1.
+	 * Absent in results of engines before 2.0.
 	 */
 	inrDb?: number | null;
-	/** The INR under its earlier name (engines before 1.1 stored a peak-to-noise ratio here). */
+	/** The INR under its earlier name (engines before 2.0 stored a peak-to-noise ratio here). */
 	peakToNoiseDb: number | null;
 	/** Correlation coefficient of each fit (≈ −1 for a clean decay). */
 	r: DecayMetricValues<number | null>;
@@ -111,7 +111,7 @@ export interface AnalysisCurves {
 
 export interface AnalysisQuality {
 	clipping: ClippingSummary | null;
-	/** Broadband INR (see BandMetrics.inrDb); absent before engine 1.1. */
+	/** Broadband INR (see BandMetrics.inrDb); absent before engine 2.0. */
 	inrDb?: number | null;
 	/** The broadband INR under its earlier name. */
 	peakToNoiseDb: number | null;
@@ -119,7 +119,7 @@ export interface AnalysisQuality {
 	lowDynamicRange: boolean;
 	/**
 	 * Broadband direct-to-reverberant energy ratio, dB: the first 2.5 ms after the direct-sound peak
-	 * against the rest. Above 0 dB the direct sound dominates EDT and the energy parameters. Absent before 1.1.
+	 * against the rest. Above 0 dB the direct sound dominates EDT and the energy parameters. Absent before 2.0.
 	 */
 	directToReverberantDb?: number | null;
 	/** Nominal centres of the bands whose values are marked biased. */
@@ -142,7 +142,7 @@ export interface AnalysisResult {
 	bandKind: BandKind;
 	/** Start point (ISO 3382-1 A.3.4) of the analysed impulse response. */
 	directSoundS: number;
-	/** Broadband INR (see BandMetrics.inrDb); absent before engine 1.1. */
+	/** Broadband INR (see BandMetrics.inrDb); absent before engine 2.0. */
 	inrDb?: number | null;
 	/** The broadband INR under its earlier name. */
 	peakToNoiseDb: number | null;

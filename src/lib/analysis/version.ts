@@ -5,4 +5,7 @@
  * fields or warnings without changing existing numbers; patch for fixes that change no stored
  * number beyond its rounding.
  */
-export const ENGINE_VERSION = '1.1.0';
+// 2.0.0 (briefly stored as 1.1.0): broadband values from the span of the bands, reflections against
+// the local diffuse level, a deconvolved sweep's low bands kept to the decay recorded after the
+// sweep and one INR behind every gate changed stored numbers, so 1.x results are not comparable.
+export const ENGINE_VERSION = '2.0.0';

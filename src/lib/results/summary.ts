@@ -5,6 +5,7 @@ import type { BandDifference } from '../analysis/compare';
 import { sameBand, type BandVerdict } from '../analysis/targets';
 import { capitalise, formatCount, formatDb, formatHz, formatList, formatPercent, formatSeconds } from '../format';
 import { bandTimesOf, MID_FREQUENCY_BANDS_HZ, midFrequencyReverberation, reverberationOf } from './reverberation';
+import type { DetectedReflection } from '../analysis/reflections';
 import type { ComparisonModel, PositionResult, ReverberationValue } from './types';
 
 /** A band's reverberation change worth a sentence: the JND of reverberation time, 5 % (ISO 3382-1:2009 Annex A, from memory). */
@@ -16,7 +17,7 @@ export const MAX_SUMMARY_SENTENCES = 8;
  * Reflections counted: those within 15 ms of the direct sound and less than 10 dB below it, the ones
  * ITU-R BS.1116-3 asks a listening room to keep at least 10 dB down (from memory).
  */
-const STRONG_REFLECTION = { withinMs: 15, belowDirectDb: 10 };
+export const STRONG_REFLECTION = { withinMs: 15, belowDirectDb: 10 } as const;
 /** Range over which the C80 change is averaged for the sentence about clarity. */
 const CLARITY_RANGE_HZ = { low: 500, high: 2000 };
 
@@ -176,11 +177,23 @@ function matchedPositions(model: ComparisonModel, side: 'baseline' | 'treated'):
 	return model[side].positions.filter((p) => matched.has(p.positionLabel));
 }
 
+/** Reflections that count (STRONG_REFLECTION) at one position. */
+export function strongReflectionCount(reflections: readonly Pick<DetectedReflection, 'delayMs' | 'levelDb'>[]): number {
+	return reflections.filter((r) => r.delayMs <= STRONG_REFLECTION.withinMs && r.levelDb > -STRONG_REFLECTION.belowDirectDb).length;
+}
+
+/** Mean count of strong reflections per position; null without positions. */
+export function strongReflectionsPerPosition(positions: readonly Pick<PositionResult, 'reflections'>[]): number | null {
+	return positions.length === 0 ? null : mean(positions.map((p) => strongReflectionCount(p.reflections)));
+}
+
+/** The strong reflections per matched position of each visit (what the summary and the pages quote). */
+export function matchedStrongReflections(model: ComparisonModel): { before: number | null; after: number | null } {
+	return { before: strongReflectionsPerPosition(matchedPositions(model, 'baseline')), after: strongReflectionsPerPosition(matchedPositions(model, 'treated')) };
+}
+
 function reflectionSentence(model: ComparisonModel): string | null {
-	const perPosition = (positions: PositionResult[]) =>
-		positions.length === 0 ? null : mean(positions.map((p) => p.reflections.filter((r) => r.delayMs <= STRONG_REFLECTION.withinMs && r.levelDb > -STRONG_REFLECTION.belowDirectDb).length));
-	const before = perPosition(matchedPositions(model, 'baseline'));
-	const after = perPosition(matchedPositions(model, 'treated'));
+	const { before, after } = matchedStrongReflections(model);
 	if (before === null || after === null || (before === 0 && after === 0)) return null;
 	const { withinMs, belowDirectDb } = STRONG_REFLECTION;
 	return `Strong early reflections (within ${withinMs} ms, less than ${belowDirectDb} dB below the direct sound): ${formatCount(before)} before, ${formatCount(after)} after (average per position).`;
