@@ -1,5 +1,5 @@
 // Regression pin: the engine's whole result on every fixture equals the one recorded in
-// golden/results.json (written by golden/write.ts from engine 1.1.0 before the speed work of
+// golden/results.json (written by golden/write.ts from engine 2.0.0 before the speed work of
 // issue 13) — each number within 1e-9 relative, every string, key and array length the same.
 // The recorded values are the engine's own earlier output, not an outside reference: they keep
 // speed changes from changing results; accuracy is checked against sources in the other tests.
