@@ -15,6 +15,11 @@ export interface AnalysisOptions {
 	room?: RoomBox & { source?: Point3; mic?: Point3 };
 	/** Lowest reflection level reported, dB re the direct sound (default −20). */
 	reflectionThresholdDb?: number;
+	/**
+	 * Chart curves (frequency responses, decay curves, ETC, waterfall): default true. With false
+	 * they are left out, and `curves` holds empty ones — for callers that only want the figures.
+	 */
+	curves?: boolean;
 	/** Called with the time each stage took (for benchmarks); not part of the result. */
 	onStage?: (stage: AnalysisStage, milliseconds: number) => void;
 }
@@ -152,6 +157,8 @@ export interface AnalysisResult {
 	 */
 	broadband: BandMetrics;
 	bands: BandMetrics[];
+	/** With octave bands, the one-third-octave bands of the same response (engine 2.1 and later). */
+	thirdOctaveBands?: BandMetrics[];
 	reflections: DetectedReflection[];
 	warnings: AnalysisWarning[];
 	curves: AnalysisCurves;

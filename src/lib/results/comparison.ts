@@ -1,11 +1,12 @@
 // Two visits of a room compared: positions matched by label, the matched averages band by band,
 // and the reverberation verdicts against a target before and after.
-import { bandDifferences } from '../analysis/compare';
+import { averageBands, bandDifferences } from '../analysis/compare';
 import { bs1116Target, judgeAgainstTarget, sameBand, type TargetBand } from '../analysis/targets';
 import { reverberationOf, type Side } from './reverberation';
 import { averagePositions } from './session';
+import { bandsOfKind, comparePositions, judgeBands, visitStatistics } from './statistics';
 import { plainSummary } from './summary';
-import { AVERAGED_METRICS, type ComparisonResult, type RoomFacts, type SessionSummary, type SourcedVerdict } from './types';
+import { AVERAGED_METRICS, type ComparisonResult, type PositionResult, type RoomFacts, type SessionSummary, type SourcedVerdict } from './types';
 
 /** Room uses for critical listening, where ITU-R BS.1116-3 gives the default target. */
 const LISTENING_USES: readonly string[] = ['listening', 'control', 'home-theatre'];
@@ -18,6 +19,15 @@ function labelsOf(summary: SessionSummary): Set<string> {
 
 export function defaultTarget(room: RoomFacts, centersHz: readonly number[]): TargetBand[] {
 	return LISTENING_USES.includes(room.roomUse) && centersHz.length > 0 ? bs1116Target(room.volumeM3, centersHz) : [];
+}
+
+/** The matched positions' one-third-octave bands compared, when both visits have them. */
+function thirdsComparison(baseline: PositionResult[], treated: PositionResult[]): ComparisonResult['thirds'] {
+	const before = bandsOfKind(baseline, 'third');
+	const after = bandsOfKind(treated, 'third');
+	if (before.length === 0 || after.length === 0) return null;
+	const differences = bandDifferences(averageBands(before, AVERAGED_METRICS), averageBands(after, AVERAGED_METRICS), AVERAGED_METRICS);
+	return { differences, judgements: judgeBands(visitStatistics(baseline, 'third').bands, visitStatistics(treated, 'third').bands) };
 }
 
 export function compareSessions(
@@ -50,6 +60,12 @@ export function compareSessions(
 		}));
 	};
 
+	const matchedOf = (summary: SessionSummary) => summary.positions.filter((p) => matched.has(p.positionLabel));
+	const matchedStatistics = { baseline: visitStatistics(matchedOf(baseline)), treated: visitStatistics(matchedOf(treated)) };
+	const judgements = judgeBands(matchedStatistics.baseline.bands, matchedStatistics.treated.bands);
+	const positionDifferences = comparePositions(baseline.positions, treated.positions, matchedPositions);
+	const thirds = thirdsComparison(matchedOf(baseline), matchedOf(treated));
+
 	const model: ComparisonResult = {
 		room,
 		baseline,
@@ -61,7 +77,11 @@ export function compareSessions(
 		target,
 		verdicts: { before: judge('before'), after: judge('after') },
 		summary: [],
-		matchedAverage
+		matchedAverage,
+		judgements,
+		positionDifferences,
+		matchedStatistics,
+		thirds
 	};
 	model.summary = plainSummary(model);
 	return model;

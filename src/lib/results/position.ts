@@ -7,7 +7,7 @@ import type { PositionResult } from './types';
 export type StoredMetrics = Omit<AnalysisResult, 'curves' | 'warnings'>;
 
 /** What a position needs from the stored metrics and curves (older or trimmed records may carry more). */
-export type PositionMetricsInput = Pick<StoredMetrics, 'broadband' | 'bands' | 'peakToNoiseDb' | 'reflections'>;
+export type PositionMetricsInput = Pick<StoredMetrics, 'broadband' | 'bands' | 'peakToNoiseDb' | 'reflections'> & Partial<Pick<StoredMetrics, 'thirdOctaveBands'>>;
 export type PositionCurvesInput = Pick<AnalysisCurves, 'frequencyResponse' | 'frequencyResponseSmoothed'>;
 
 export const SMOOTHING_KEYS: readonly SmoothingKey[] = ['1', '3', '6', '12', '24'];
@@ -20,7 +20,8 @@ export function positionFromAnalysis(
 	captureId: number,
 	positionLabel: string,
 	metrics: PositionMetricsInput,
-	curves: PositionCurvesInput
+	curves: PositionCurvesInput,
+	labels: { sourceLabel?: string | null; micLabel?: string | null } = {}
 ): PositionResult {
 	if (!Number.isInteger(captureId) || captureId <= 0) invalid(`captureId must be a positive integer, got ${captureId}`);
 	if (typeof positionLabel !== 'string' || positionLabel.trim() === '') invalid(`capture ${captureId}: the position label is empty`);
@@ -44,6 +45,9 @@ export function positionFromAnalysis(
 		positionLabel: positionLabel.trim(),
 		broadband: metrics.broadband,
 		bands: [...metrics.bands].sort((a, b) => a.centerHz - b.centerHz),
+		sourceLabel: labels.sourceLabel ?? null,
+		micLabel: labels.micLabel ?? null,
+		thirdBands: Array.isArray(metrics.thirdOctaveBands) ? [...metrics.thirdOctaveBands].sort((a, b) => a.centerHz - b.centerHz) : null,
 		peakToNoiseDb: typeof metrics.peakToNoiseDb === 'number' && Number.isFinite(metrics.peakToNoiseDb) ? metrics.peakToNoiseDb : null,
 		response: { freqHz: [...response.freqHz], db: [...response.db], smoothed },
 		reflections: Array.isArray(metrics.reflections) ? [...metrics.reflections] : []

@@ -3,6 +3,7 @@
 import { averageBands, outlierPositions, powerAverageCurves, type AveragedBand } from '../analysis/compare';
 import type { SmoothingKey } from '../analysis/types';
 import { SMOOTHING_KEYS } from './position';
+import { bandsOfKind, visitStatistics } from './statistics';
 import { AVERAGED_METRICS, type PositionResult, type SessionMeta, type SessionSummary } from './types';
 
 /** T30 more than this fraction away from the other positions' mean flags a position (common practice, no source). */
@@ -58,6 +59,13 @@ export function averageResponses(positions: PositionResult[]): SessionSummary['a
 	return { freqHz, db: averageOf((p) => p.response.db), smoothed };
 }
 
+/** Averages and statistics over the positions' one-third-octave bands; null when none has them. */
+export function thirdsOf(positions: PositionResult[]): SessionSummary['thirds'] {
+	const rows = bandsOfKind(positions, 'third');
+	if (rows.length === 0) return null;
+	return { average: averageBands(rows, AVERAGED_METRICS), statistics: visitStatistics(positions, 'third') };
+}
+
 export function summariseSession(meta: SessionMeta, positions: PositionResult[]): SessionSummary {
 	const outliers = outlierPositions(
 		positions.map((p) => p.bands),
@@ -78,6 +86,8 @@ export function summariseSession(meta: SessionMeta, positions: PositionResult[])
 		average: averagePositions(positions),
 		broadbandAverage: averageBroadband(positions),
 		averageResponse: averageResponses(positions),
-		outliers
+		outliers,
+		statistics: visitStatistics(positions, 'octave'),
+		thirds: thirdsOf(positions)
 	};
 }

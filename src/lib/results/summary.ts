@@ -5,6 +5,7 @@ import type { BandDifference } from '../analysis/compare';
 import { sameBand, type BandVerdict } from '../analysis/targets';
 import { capitalise, formatCount, formatDb, formatHz, formatList, formatPercent, formatSeconds } from '../format';
 import { bandTimesOf, MID_FREQUENCY_BANDS_HZ, midFrequencyReverberation, reverberationOf } from './reverberation';
+import { reverberationJudgement } from './statistics';
 import type { DetectedReflection } from '../analysis/reflections';
 import type { ComparisonModel, PositionResult, ReverberationValue } from './types';
 
@@ -199,6 +200,19 @@ function reflectionSentence(model: ComparisonModel): string | null {
 	return `Strong early reflections (within ${withinMs} ms, less than ${belowDirectDb} dB below the direct sound): ${formatCount(before)} before, ${formatCount(after)} after (average per position).`;
 }
 
+/**
+ * Bands whose reverberation changed noticeably (NOTABLE_REVERBERATION_CHANGE) but by no more than
+ * the spread between positions (judgeDifference): the change may come from where the microphone stood.
+ */
+function spreadSentence(model: ComparisonModel, changes: BandChange[]): string | null {
+	const within = changes
+		.filter((change) => Math.abs(change.relativeChange) >= NOTABLE_REVERBERATION_CHANGE)
+		.filter((change) => reverberationJudgement(model.judgements?.find((j) => sameBand(j.centerHz, change.band.centerHz)))?.verdict === 'within-spread')
+		.map((change) => formatHz(change.band.centerHz));
+	if (within.length === 0) return null;
+	return `At ${formatList(within)} the change in reverberation is no larger than the spread between positions, so it may come from where the microphone stood rather than from the room.`;
+}
+
 function positionSentence(model: ComparisonModel): string {
 	const count = model.matchedPositions.length;
 	if (count === 0) return 'No position was measured in both visits, so the visits cannot be compared position by position.';
@@ -220,6 +234,8 @@ export function plainSummary(model: ComparisonModel): string[] {
 	const closing = [reflections, positionSentence(model)].filter((s): s is string => s !== null);
 
 	const { changes, missing } = classifyBands(model);
+	const spread = spreadSentence(model, changes);
+	if (spread) closing.unshift(spread);
 	let termIntroduced = mid !== null;
 	const term = () => {
 		const text = termIntroduced ? 'reverberation' : `the ${TERM.t30S}`;

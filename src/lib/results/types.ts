@@ -4,6 +4,8 @@ import type { BandMetrics, SmoothingKey } from '../analysis/types';
 import type { DetectedReflection } from '../analysis/reflections';
 import type { AveragedBand, BandDifference } from '../analysis/compare';
 import type { BandVerdict, TargetBand } from '../analysis/targets';
+import type { DifferenceJudgement } from './spread';
+import type { VisitStatistics } from './statistics';
 
 /** The metrics averaged over positions and compared between visits. */
 export const AVERAGED_METRICS = ['edtS', 't20S', 't30S', 'c50Db', 'c80Db', 'd50', 'tsMs'] as const;
@@ -16,6 +18,11 @@ export interface PositionResult {
 	broadband: BandMetrics;
 	bands: BandMetrics[];
 	peakToNoiseDb: number | null;
+	/** Loudspeaker and microphone labels of the position row, for the measurement grade (absent: unlabelled). */
+	sourceLabel?: string | null;
+	micLabel?: string | null;
+	/** One-third-octave bands of the same capture, when the engine computed them (2.1 and later). */
+	thirdBands?: BandMetrics[] | null;
 	/** 48 points per octave; `smoothed` holds the 1/N-octave versions on the same grid. */
 	response: { freqHz: number[]; db: number[]; smoothed: Record<SmoothingKey, number[]> };
 	reflections: DetectedReflection[];
@@ -45,6 +52,10 @@ export interface SessionSummary extends SessionMeta {
 	/** Power average of the positions' responses, with the same smoothings. */
 	averageResponse: { freqHz: number[]; db: number[]; smoothed: Record<SmoothingKey, number[]> } | null;
 	outliers: PositionOutlier[];
+	/** Spread per band, ISO 3382-2 uncertainty of T20/T30, T_mid and the measurement grade. */
+	statistics: VisitStatistics;
+	/** The same over the positions' one-third-octave bands; null when no position has them. */
+	thirds: { average: AveragedBand[]; statistics: VisitStatistics } | null;
 }
 
 export interface RoomFacts {
@@ -67,6 +78,19 @@ export interface ProblemBandView {
 	status: 'open' | 'addressed';
 }
 
+/** Per band, each metric's before/after difference judged against the spread and the JND. */
+export interface BandJudgement {
+	centerHz: number;
+	metrics: Record<string, DifferenceJudgement>;
+}
+
+/** One matched position, before and after, band by band. */
+export interface PositionComparison {
+	positionLabel: string;
+	differences: BandDifference[];
+	broadband: BandDifference['metrics'];
+}
+
 export interface ComparisonModel {
 	room: RoomFacts;
 	baseline: SessionSummary;
@@ -81,6 +105,14 @@ export interface ComparisonModel {
 	verdicts: { before: BandVerdict[]; after: BandVerdict[] };
 	/** Plain-words sentences for people without acoustics training. */
 	summary: string[];
+	/** Each band's differences judged against the spread of the matched positions. */
+	judgements: BandJudgement[];
+	/** The matched positions one by one. */
+	positionDifferences: PositionComparison[];
+	/** The grade of each visit over the matched positions, and each visit's statistics over them. */
+	matchedStatistics: { baseline: VisitStatistics; treated: VisitStatistics };
+	/** The same comparison in one-third-octave bands, when both visits have them. */
+	thirds: { differences: BandDifference[]; judgements: BandJudgement[] } | null;
 }
 
 /** T30 when it could be measured, T20 in its place otherwise. */
@@ -103,3 +135,4 @@ export interface ComparisonResult extends ComparisonModel {
 	/** Both visits averaged over the matched positions only (what differences and verdicts use). */
 	matchedAverage: { baseline: AveragedBand[]; treated: AveragedBand[] };
 }
+

@@ -40,6 +40,9 @@ export interface PositionInput {
 	freqHz?: number[];
 	/** Response level in dB at every grid point (the smoothed versions get the same). */
 	responseDb?: number[];
+	sourceLabel?: string | null;
+	micLabel?: string | null;
+	thirdBands?: BandInput[];
 }
 
 let nextCaptureId = 1;
@@ -54,6 +57,9 @@ export function makePosition(input: PositionInput): PositionResult {
 		broadband: makeBand({ centerHz: 0, ...input.broadband }),
 		bands: input.bands.map(makeBand),
 		peakToNoiseDb: 50,
+		sourceLabel: input.sourceLabel ?? null,
+		micLabel: input.micLabel ?? null,
+		thirdBands: input.thirdBands ? input.thirdBands.map(makeBand) : null,
 		response: { freqHz: [...freqHz], db: [...db], smoothed },
 		reflections: (input.reflectionLevelsDb ?? []).map((level, i) => makeReflection(level, 2 + i))
 	};
