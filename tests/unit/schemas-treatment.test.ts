@@ -86,7 +86,7 @@ describe('item form', () => {
 	it('a diffuser: numbers in mm, width 0 (the design fixes it), no depth limit when empty', () => {
 		const r = itemFormSchema('mm').parse(diffuser);
 		expect(r.widthMm).toBe(0);
-		expect(r.params).toEqual({ kind: 'diffuser', sequence: 'quadratic-residue', prime: 7, designFrequencyHz: 500, wellWidthMm: 50, finThicknessMm: 6, maxDepthMm: null, boardThicknessMm: 18 });
+		expect(r.params).toEqual({ kind: 'diffuser', sequence: 'quadratic-residue', prime: 7, designFrequencyHz: 500, wellWidthMm: 50, finThicknessMm: 6, maxDepthMm: null, boardThicknessMm: 18, construction: 'full-depth' });
 		expect(r.surface).toBe('back');
 		expect(r.unitPrice).toBeNull();
 		expect(r.why).toBeNull();
@@ -149,6 +149,10 @@ describe('item form', () => {
 	it('stored diffuser parameters refuse a non-prime number of wells too', () => {
 		const ok = { kind: 'diffuser', sequence: 'quadratic-residue', prime: 7, designFrequencyHz: 500, wellWidthMm: 50, finThicknessMm: 6, maxDepthMm: null, boardThicknessMm: 18 };
 		expect(diffuserParamsSchema.safeParse(ok).success).toBe(true);
+		// A row stored before constructions existed reads as the full-depth box it was built as.
+		expect(diffuserParamsSchema.parse(ok).construction).toBe('full-depth');
+		expect(diffuserParamsSchema.parse({ ...ok, construction: 'low-waste' }).construction).toBe('low-waste');
+		expect(diffuserParamsSchema.safeParse({ ...ok, construction: 'solid' }).success).toBe(false);
 		expect(messages(diffuserParamsSchema.safeParse({ ...ok, prime: 9 }))).toEqual(['The number of wells must be a prime.']);
 	});
 });

@@ -1,6 +1,7 @@
 // From the plan's items to what the workshop needs: a build sheet per design, the parts of all
 // units together laid out on the stock sheets, the weight of each unit and the cost.
-import { diffuserBuildSheet, membraneTrapBuildSheet, porousFrameBuildSheet, WELL_SHIM_PART, type BuildSheet } from '../treatment/buildsheet';
+import { diffuserBuildSheet, membraneTrapBuildSheet, porousFrameBuildSheet, WELL_SHIM_PART, type BuildSheet, type ConstructionBoard } from '../treatment/buildsheet';
+import type { DiffuserConstruction } from '../treatment/diffuser-build';
 import { cutList, sameThickness, type CutList, type StockSheet } from '../treatment/cutlist';
 import { PANEL_STOCK } from '../treatment/membrane';
 import type { Part } from '../treatment/parts';
@@ -25,13 +26,22 @@ export interface ItemBuild {
 	/** Weight of the sheet-goods parts of one unit, kg (fibre, fabric and fixings not counted). */
 	unitWeightKg: number;
 	heavy: boolean;
+	/** A diffuser's board in both constructions: the chosen one and the other, per unit. */
+	constructions: { chosen: ConstructionFigures; other: ConstructionFigures; savingM2: number; savingPct: number } | null;
+}
+
+export interface ConstructionFigures {
+	construction: DiffuserConstruction;
+	boardAreaM2: number;
+	weightKg: number;
+	pieces: number;
 }
 
 export function itemBuildSheet(item: PlanItem): BuildSheet {
 	const p = item.params;
 	switch (p.kind) {
 		case 'diffuser':
-			return diffuserBuildSheet(diffuserDesignOf(p), { heightMm: item.heightMm, boardThicknessMm: p.boardThicknessMm });
+			return diffuserBuildSheet(diffuserDesignOf(p), { heightMm: item.heightMm, boardThicknessMm: p.boardThicknessMm, construction: p.construction ?? 'full-depth' });
 		case 'porous':
 			return porousFrameBuildSheet({
 				widthMm: item.widthMm,
@@ -58,14 +68,17 @@ function partsWeightKg(item: PlanItem, parts: readonly Part[]): number {
 	const panelDensity = item.params.kind === 'membrane' ? panelStockOf(item.params).densityKgM3 : SHEET_DENSITY_KG_M3;
 	return parts.reduce((sum, part) => {
 		const density = part.name === 'panel (membrane)' ? panelDensity : SHEET_DENSITY_KG_M3;
-		return sum + (part.quantity * part.lengthMm * part.widthMm * part.thicknessMm * density) / 1e9;
+		return sum + (part.quantity * (part.areaMm2 ?? part.lengthMm * part.widthMm) * part.thicknessMm * density) / 1e9;
 	}, 0);
 }
 
 export function itemBuild(item: PlanItem): ItemBuild {
 	const sheet = itemBuildSheet(item);
 	const unitWeightKg = partsWeightKg(item, sheet.parts);
-	return { itemId: item.id, label: item.label, quantity: item.quantity, sheet, unitWeightKg, heavy: unitWeightKg > HEAVY_UNIT_KG };
+	const d = sheet.diffuser;
+	const figures = (b: ConstructionBoard): ConstructionFigures => ({ construction: b.construction, boardAreaM2: b.boardAreaM2, weightKg: b.volumeM3 * SHEET_DENSITY_KG_M3, pieces: b.pieces });
+	const constructions = d ? { chosen: figures(d.chosen), other: figures(d.other), savingM2: d.lowWasteSavingM2, savingPct: d.lowWasteSavingPct } : null;
+	return { itemId: item.id, label: item.label, quantity: item.quantity, sheet, unitWeightKg, heavy: unitWeightKg > HEAVY_UNIT_KG, constructions };
 }
 
 /** Build sheets of every item; an item whose sizes cannot be built is reported instead. */

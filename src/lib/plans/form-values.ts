@@ -52,7 +52,8 @@ export function itemFormValues(item: ItemDraft, unit: LengthUnit): FormValues {
 				wellWidthMm: len(p.wellWidthMm),
 				finThicknessMm: len(p.finThicknessMm),
 				maxDepthMm: p.maxDepthMm === null ? '' : len(p.maxDepthMm),
-				boardThicknessMm: len(p.boardThicknessMm)
+				boardThicknessMm: len(p.boardThicknessMm),
+				construction: p.construction ?? 'full-depth'
 			};
 	}
 }
@@ -90,6 +91,6 @@ export const NEW_ITEM: Record<ItemKind, ItemDraft> = {
 		unitPrice: null,
 		problemBandId: null,
 		why: null,
-		params: { kind: 'diffuser', sequence: 'quadratic-residue', prime: 7, designFrequencyHz: 500, wellWidthMm: 50, finThicknessMm: 6, maxDepthMm: null, boardThicknessMm: 18 }
+		params: { kind: 'diffuser', sequence: 'quadratic-residue', prime: 7, designFrequencyHz: 500, wellWidthMm: 50, finThicknessMm: 6, maxDepthMm: null, boardThicknessMm: 18, construction: 'low-waste' }
 	}
 };

@@ -69,7 +69,9 @@ export function draftFromProposal(proposal: Proposal, problemBandId: number | nu
 					finThicknessMm: Math.round(proposal.diffuser.finThicknessM * 1000 * 10) / 10,
 					// A design frequency raised to fit a depth limit keeps that limit, so the built panel is the proposed one.
 					maxDepthMm: proposal.diffuser.designFrequencyHz > proposal.diffuser.requestedDesignFrequencyHz ? Math.floor(proposal.diffuser.deepestWellM * 10000) / 10 : null,
-					boardThicknessMm: DRAFT_BOARD_MM
+					boardThicknessMm: DRAFT_BOARD_MM,
+					// Parts sized to their wells: the same wells from less board (treatment/diffuser-build.ts).
+					construction: 'low-waste'
 				}
 			};
 	}

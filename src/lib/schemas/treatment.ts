@@ -3,6 +3,7 @@
 import { z } from 'zod';
 import { TABLE_BANDS_HZ } from '../treatment/bands';
 import { isPrime } from '../treatment/diffuser';
+import { DIFFUSER_CONSTRUCTIONS, type DiffuserConstruction } from '../treatment/diffuser-build';
 import { MATERIALS } from '../treatment/materials';
 import { PANEL_STOCK } from '../treatment/membrane';
 import { POROUS_PRESETS } from '../treatment/porous';
@@ -133,7 +134,9 @@ export const diffuserParamsSchema = z.object({
 	wellWidthMm: z.number().min(LIMITS.wellWidthMm.min).max(LIMITS.wellWidthMm.max),
 	finThicknessMm: z.number().min(LIMITS.finThicknessMm.min).max(LIMITS.finThicknessMm.max),
 	maxDepthMm: z.number().min(LIMITS.maxDepthMm.min).max(LIMITS.maxDepthMm.max).nullable(),
-	boardThicknessMm: z.number().min(LIMITS.boardThicknessMm.min).max(LIMITS.boardThicknessMm.max)
+	boardThicknessMm: z.number().min(LIMITS.boardThicknessMm.min).max(LIMITS.boardThicknessMm.max),
+	// Added later: rows written before it are the full-depth box they were built as.
+	construction: z.enum(DIFFUSER_CONSTRUCTIONS as [DiffuserConstruction, ...DiffuserConstruction[]]).default('full-depth')
 });
 export const itemParamsSchema = z.discriminatedUnion('kind', [porousParamsSchema, membraneParamsSchema, diffuserParamsSchema]);
 
@@ -207,7 +210,8 @@ export function itemFormSchema(unit: LengthUnit) {
 			.optional()
 			.transform((v) => (v && v.trim() ? v : null))
 			.pipe(z.union([z.null(), lengthField('maximum depth', bare, LIMITS.maxDepthMm)])),
-		boardThicknessMm: lengthField('board thickness', bare, LIMITS.boardThicknessMm)
+		boardThicknessMm: lengthField('board thickness', bare, LIMITS.boardThicknessMm),
+		construction: z.enum(DIFFUSER_CONSTRUCTIONS as [DiffuserConstruction, ...DiffuserConstruction[]], { error: 'Pick how the diffuser is built.' }).optional().default('full-depth')
 	});
 	return z.discriminatedUnion('kind', [porous, membrane, diffuser], { error: 'Pick what kind of treatment this is.' }).transform((v) => {
 		const { label: name, surface, quantity, heightMm, unitPrice, problemBandId, why } = v;
@@ -257,7 +261,8 @@ export function itemFormSchema(unit: LengthUnit) {
 				wellWidthMm: v.wellWidthMm,
 				finThicknessMm: v.finThicknessMm,
 				maxDepthMm: v.maxDepthMm,
-				boardThicknessMm: v.boardThicknessMm
+				boardThicknessMm: v.boardThicknessMm,
+				construction: v.construction
 			}
 		};
 	});

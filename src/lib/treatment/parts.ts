@@ -15,6 +15,8 @@ export interface Part {
 	finishedFaces: FinishedFaces;
 	grain: Grain;
 	note?: string;
+	/** Face area of a shaped part (a cap cut to the well profile) when smaller than its blank, mm². */
+	areaMm2?: number;
 }
 
 export function checkPart(part: Part): void {
