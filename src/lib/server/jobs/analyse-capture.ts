@@ -3,7 +3,8 @@
 // completion in one transaction.
 import { createHash } from 'node:crypto';
 import type { Knex } from 'knex';
-import { analyseRecording, decodeWav, isAnalysisInputError, type AnalysisResult } from '../../analysis';
+import { decodeWav, isAnalysisInputError, type AnalysisResult } from '../../analysis';
+import { analyseRecordingWithThirds } from '../../analysis/with-thirds';
 import { config } from '../config';
 import { enqueueMail } from '../mail';
 import { sessionAnalysedMail } from '../messages';
@@ -54,13 +55,12 @@ export async function runAnalysis(ctx: CaptureForAnalysis, s: Storage): Promise<
 		reference = decodeWav(await s.getBytes(key), { maxDurationS: config().ANALYSIS_MAX_DURATION_S }).samples;
 	}
 	const room = ctx.source && ctx.mic ? { ...ctx.room, source: ctx.source, mic: ctx.mic } : ctx.room;
-	return analyseRecording(bytes, {
+	return analyseRecordingWithThirds(bytes, {
 		channel: ctx.channel,
 		maxDurationS: config().ANALYSIS_MAX_DURATION_S,
 		reference,
 		sweep: ctx.sweep ? { f1Hz: ctx.sweep.f1Hz, f2Hz: ctx.sweep.f2Hz, durationS: ctx.sweep.durationS } : undefined,
-		room,
-		bands: 'octave'
+		room
 	});
 }
 
