@@ -4,6 +4,14 @@ import { startChild, supervise, type Child } from '../../scripts/processes';
 // Real child processes (Node itself), short back-off so a test takes seconds.
 const node = (code: string) => () => startChild('test process', process.execPath, ['-e', code], {}, true);
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+/** Waits for a condition instead of a fixed time: starting Node takes seconds on a loaded machine. */
+async function until(condition: () => boolean, timeoutMs: number): Promise<void> {
+	const deadline = Date.now() + timeoutMs;
+	while (!condition()) {
+		if (Date.now() > deadline) throw new Error(`condition not met within ${timeoutMs} ms`);
+		await sleep(20);
+	}
+}
 
 describe('supervise', () => {
 	it('starts a process that keeps dying again, doubling the wait up to the cap', async () => {
@@ -11,7 +19,7 @@ describe('supervise', () => {
 		let starts = 0;
 		const start = node('process.exit(3)');
 		const s = supervise('failing process', () => (starts++, start()), { minMs: 100, maxMs: 400, healthyAfterMs: 60_000 }, (m) => log.push(m));
-		await sleep(2_800);
+		await until(() => log.length >= 4, 25_000);
 		await s.stop();
 		const after = starts;
 		expect(log.slice(0, 4)).toEqual([
@@ -26,16 +34,15 @@ describe('supervise', () => {
 		// Stopped means stopped: no start after it.
 		await sleep(1_000);
 		expect(starts).toBe(after);
-	}, 10_000);
+	}, 30_000);
 
 	it('goes back to the shortest wait after a process ran long enough to count as healthy', async () => {
 		const log: string[] = [];
 		const s = supervise('process', node('setTimeout(() => process.exit(1), 300)'), { minMs: 100, maxMs: 1_000, healthyAfterMs: 200 }, (m) => log.push(m));
-		await sleep(2_500);
+		await until(() => log.length >= 3, 25_000);
 		await s.stop();
-		expect(log.length).toBeGreaterThanOrEqual(2);
 		for (const line of log) expect(line).toBe('process exited (1); starting it again in 0.1 s');
-	}, 10_000);
+	}, 30_000);
 
 	it('stops the running process and does not start it again', async () => {
 		const log: string[] = [];
