@@ -1,37 +1,39 @@
 /**
  * Command-line analysis of one WAV file; prints one JSON object on stdout.
  *
- *   npx tsx scripts/analyze.ts <file.wav> [--bands octave|third] [--reference <sweep.wav>] [--channel N]
+ *   npx tsx scripts/analyze.ts <file.wav> [--bands octave|third] [--reference <sweep.wav>] [--channel N] [--curves]
  *
  * --reference: the file is a recorded sweep and <sweep.wav> the sweep that was played.
+ * --curves: also print the chart curves (as stored for the portal) under `curves`, after the
+ * figures; without it they are not computed, which saves most of the time on a short file.
  * --channel: 0-based channel of the file. Untrusted values are null, with a warning saying why.
  * inrDb (also under its earlier name peakToNoiseDb): the impulse response-to-noise ratio behind the
  * T20/T30 requirements; broadband values are those of the span of the bands.
  * On bad input: exit code 1, one line on stderr, nothing on stdout.
  */
 import { readFileSync } from 'node:fs';
-import { analyseRecording } from '../src/lib/analysis/analyse';
 import type { BandKind } from '../src/lib/analysis/bands';
 import { AnalysisInputError } from '../src/lib/analysis/errors';
 import type { AnalysisResult, BandMetrics } from '../src/lib/analysis/types';
-import { decodeWav } from '../src/lib/analysis/wav';
 
 interface CliArguments {
 	file: string;
 	bands: BandKind;
 	reference: string | null;
 	channel: number;
+	curves: boolean;
 }
 
 class UsageError extends Error {}
 
-const USAGE = 'usage: analyze.ts <file.wav> [--bands octave|third] [--reference <sweep.wav>] [--channel N]';
+const USAGE = 'usage: analyze.ts <file.wav> [--bands octave|third] [--reference <sweep.wav>] [--channel N] [--curves]';
 
 function parseArguments(argv: string[]): CliArguments {
 	let file: string | null = null;
 	let bands: BandKind = 'octave';
 	let reference: string | null = null;
 	let channel = 0;
+	let curves = false;
 	for (let i = 0; i < argv.length; i++) {
 		const argument = argv[i];
 		const value = () => {
@@ -49,6 +51,8 @@ function parseArguments(argv: string[]): CliArguments {
 			const text = value();
 			if (!/^\d+$/.test(text)) throw new UsageError(`--channel must be a whole number ≥ 0 (0-based), got "${text}"`);
 			channel = Number(text);
+		} else if (argument === '--curves') {
+			curves = true;
 		} else if (argument.startsWith('--')) {
 			throw new UsageError(`unknown option ${argument} — ${USAGE}`);
 		} else if (file === null) {
@@ -58,7 +62,7 @@ function parseArguments(argv: string[]): CliArguments {
 		}
 	}
 	if (file === null) throw new UsageError(`no WAV file given — ${USAGE}`);
-	return { file, bands, reference, channel };
+	return { file, bands, reference, channel, curves };
 }
 
 function readInput(path: string): Uint8Array {
@@ -109,21 +113,26 @@ function summary(result: AnalysisResult) {
 	};
 }
 
-function main(): void {
+async function main(): Promise<void> {
 	const args = parseArguments(process.argv.slice(2));
 	const bytes = readInput(args.file);
-	const played = args.reference === null ? null : decodeWav(readInput(args.reference));
+	const referenceBytes = args.reference === null ? null : readInput(args.reference);
+	// Loaded once the arguments are known good: a usage error answers without loading the engine.
+	const [{ analyseRecording }, { decodeWav }] = await Promise.all([import('../src/lib/analysis/analyse'), import('../src/lib/analysis/wav')]);
+	const played = referenceBytes === null ? null : decodeWav(referenceBytes);
 	const result = analyseRecording(bytes, {
 		bands: args.bands,
 		channel: args.channel,
 		reference: played?.samples,
-		referenceSampleRate: played?.sampleRate
+		referenceSampleRate: played?.sampleRate,
+		curves: args.curves
 	});
-	process.stdout.write(`${JSON.stringify(summary(result))}\n`);
+	const output = args.curves ? { ...summary(result), curves: result.curves } : summary(result);
+	process.stdout.write(`${JSON.stringify(output)}\n`);
 }
 
 try {
-	main();
+	await main();
 } catch (error) {
 	const message = error instanceof UsageError || error instanceof AnalysisInputError ? error.message : `analysis failed: ${(error as Error).message}`;
 	process.stderr.write(`${message.replace(/\s*\n\s*/g, ' ')}\n`);

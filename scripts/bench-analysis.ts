@@ -1,129 +1,245 @@
 /**
- * Time and memory of the analysis engine on one core.
+ * Speed of the analysis engine against the independent SciPy pipeline (tests/reference/pipeline.py,
+ * Debian's /usr/bin/python3 with numpy and scipy), on the same files, in one run:
  *
- *   npx tsx scripts/bench-analysis.ts
+ *   npx tsx scripts/bench-analysis.ts [--rounds N] [--only ir3-octave,ir3-third,ir10,sweep10] [--no-cli]
  *
- * 1. a 3 s, 48 kHz impulse response, whole analysis, octave and one-third-octave bands (target < 150 ms);
- * 2. a 10 s, 96 kHz stereo recorded sweep: decode, deconvolution and analysis (target < 1.5 s, < 300 MB),
- *    run in a child process that only reads the file, so its peak memory is the analysis's own.
+ * Files: a 3 s, 48 kHz impulse response (octaves and thirds), a 10 s, 96 kHz impulse response and
+ * a 10 s, 96 kHz recorded sweep analysed with its reference, written as 32-bit float WAV so both
+ * sides read the same samples.
+ *
+ * 1. In-process, imports and file reading excluded on both sides: the first call in a fresh
+ *    process (what a new worker or the command line pays) and the median of the next calls, each
+ *    against SciPy's; the lower bound (one FFT of the file plus ten zero-phase band passes in
+ *    numpy/scipy) beside it; the engine's peak memory beyond the decoded file, in bytes per sample.
+ *    The engine is timed as the worker runs it (with chart curves) and as the command line does
+ *    (without).
+ * 2. Whole process: `npx tsx scripts/analyze.ts …` against `python3 tests/reference/pipeline.py …`,
+ *    CPU time (user + system) and wall time.
+ * Engine and SciPy runs alternate, and each ratio is the median over the rounds of the pairs, so a
+ * change of machine load hits both sides. The load average is printed: others may share the machine.
  */
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { analyseImpulseResponse, analyseRecording } from '../src/lib/analysis/analyse';
-import { RealFftPlan, fftSizeFor } from '../src/lib/analysis/fft';
-import { generateExponentialSweep } from '../src/lib/analysis/sweep';
-import { exponentialNoiseDecay } from '../src/lib/analysis/synthetic';
-import type { AnalysisStage } from '../src/lib/analysis/types';
-import { decodeWav, encodeWav } from '../src/lib/analysis/wav';
 
-type Stages = Partial<Record<AnalysisStage, number>>;
+const PYTHON = '/usr/bin/python3';
+const root = fileURLToPath(new URL('../', import.meta.url));
+const pipeline = join(root, 'tests/reference/pipeline.py');
+const tsx = join(root, 'node_modules/.bin/tsx');
+const self = fileURLToPath(import.meta.url);
 
-const megabytes = (bytes: number) => `${(bytes / 1024 / 1024).toFixed(0)} MB`;
-
-function memoryLine(): string {
-	const { rss, heapUsed } = process.memoryUsage();
-	// maxRSS is in kilobytes.
-	return `rss ${megabytes(rss)}, heap ${megabytes(heapUsed)}, peak rss ${megabytes(process.resourceUsage().maxRSS * 1024)}`;
+interface Case {
+	id: string;
+	label: string;
+	file: string;
+	bands: 'octave' | 'third';
+	reference?: string;
+	goals: { cold: number; warm: number; cli: number };
 }
 
-function stagesLine(stages: Stages): string {
-	return Object.entries(stages)
-		.map(([stage, ms]) => `${stage} ${ms!.toFixed(1)}`)
-		.join(', ');
+interface EngineTiming {
+	coldMs: number;
+	warmMs: number;
+	coldNoCurvesMs: number;
+	warmNoCurvesMs: number;
+	bytesPerSample: number;
+	samples: number;
 }
+
+interface ScipyTiming {
+	coldMs: number;
+	warmMs: number;
+	lowerBoundMs: number;
+}
+
+const WARM_RUNS = 4;
 
 function median(values: number[]): number {
 	const sorted = [...values].sort((a, b) => a - b);
-	return sorted[Math.floor(sorted.length / 2)];
+	const middle = Math.floor(sorted.length / 2);
+	return sorted.length % 2 ? sorted[middle] : (sorted[middle - 1] + sorted[middle]) / 2;
 }
 
-function impulseResponseCase(): void {
-	const sampleRate = 48000;
-	const ir = exponentialNoiseDecay({ t60S: 0.8, durationS: 3, sampleRate, onsetS: 0.01, noiseDbRePeak: -75, seed: 1 }).map((v) => 0.2 * v);
-	ir[480] += 1;
-	for (const bands of ['octave', 'third'] as const) {
-		const times: number[] = [];
-		let stages: Stages = {};
-		for (let run = 0; run < 7; run++) {
-			const current: Stages = {};
-			const started = performance.now();
-			analyseImpulseResponse(ir, sampleRate, { bands, onStage: (stage, ms) => (current[stage] = ms) });
-			times.push(performance.now() - started);
-			stages = current;
-		}
-		console.log(
-			`3 s @ 48 kHz IR, ${bands.padEnd(6)}: first ${times[0].toFixed(0)} ms, median of the next ${times.length - 1} ${median(times.slice(1)).toFixed(0)} ms (target < 150 ms)`
-		);
-		console.log(`    stages (ms, last run): ${stagesLine(stages)}`);
-	}
-	console.log(`    memory: ${memoryLine()}`);
-}
+const load = () => loadavg().map((v) => v.toFixed(2)).join(' ');
 
-/** Linear convolution by FFT (setup only, not timed). */
-function convolve(a: Float64Array, b: Float64Array): Float64Array {
-	const plan = new RealFftPlan(fftSizeFor(a.length + b.length));
-	const A = new Float64Array(plan.size + 2);
-	const B = new Float64Array(plan.size + 2);
-	plan.forward(a, A);
-	plan.forward(b, B);
-	for (let k = 0; k <= plan.size / 2; k++) {
-		const re = A[2 * k] * B[2 * k] - A[2 * k + 1] * B[2 * k + 1];
-		A[2 * k + 1] = A[2 * k] * B[2 * k + 1] + A[2 * k + 1] * B[2 * k];
-		A[2 * k] = re;
-	}
-	const out = new Float64Array(plan.size);
-	plan.inverse(A, out);
-	return out;
-}
+async function writeInputs(directory: string): Promise<Case[]> {
+	const { encodeWav } = await import('../src/lib/analysis/wav');
+	const { exponentialNoiseDecay } = await import('../src/lib/analysis/synthetic');
+	const { generateExponentialSweep } = await import('../src/lib/analysis/sweep');
+	const { RealFftPlan, fftSizeFor } = await import('../src/lib/analysis/fft');
+	const write = (name: string, samples: Float64Array, sampleRate: number) => {
+		const path = join(directory, name);
+		writeFileSync(path, encodeWav(samples, sampleRate, '32f'));
+		return path;
+	};
+	const ir = (durationS: number, sampleRate: number, seed: number) => {
+		const x = exponentialNoiseDecay({ t60S: 0.8, durationS, sampleRate, onsetS: 0.01, noiseDbRePeak: -75, seed }).map((v) => 0.2 * v);
+		x[Math.round(0.01 * sampleRate)] += 0.9;
+		return x;
+	};
+	const ir3 = write('ir-3s-48k.wav', ir(3, 48000, 1), 48000);
+	const ir10 = write('ir-10s-96k.wav', ir(10, 96000, 3), 96000);
 
-function writeSweepInputs(directory: string): { recording: string; reference: string } {
+	// A recorded sweep: an 8 s sweep through a room, 10 s recorded (convolution by FFT, setup only).
 	const sampleRate = 96000;
 	const sweep = generateExponentialSweep({ f1Hz: 20, f2Hz: 20000, durationS: 8, sampleRate, fadeInS: 0.1, fadeOutS: 0.02, amplitude: 0.5 });
 	const room = exponentialNoiseDecay({ t60S: 0.6, durationS: 1.5, sampleRate, onsetS: 0.003, seed: 2 }).map((v) => 0.02 * v);
 	room[288] += 0.5;
-	const frames = 10 * sampleRate;
-	const left = convolve(sweep.samples, room).slice(0, frames);
-	const right = left.map((v, i) => 0.8 * v + (i > 100 ? 0.1 * left[i - 100] : 0));
-	const recording = join(directory, 'recorded-sweep-96k-stereo.wav');
-	const reference = join(directory, 'sweep-96k.wav');
-	writeFileSync(recording, encodeWav([left, right], sampleRate, 24));
-	writeFileSync(reference, encodeWav(sweep.samples, sampleRate, '32f'));
-	return { recording, reference };
+	const plan = new RealFftPlan(fftSizeFor(sweep.samples.length + room.length));
+	const a = new Float64Array(plan.size + 2);
+	const b = new Float64Array(plan.size + 2);
+	plan.forward(sweep.samples, a);
+	plan.forward(room, b);
+	for (let k = 0; k <= plan.size / 2; k++) {
+		const re = a[2 * k] * b[2 * k] - a[2 * k + 1] * b[2 * k + 1];
+		a[2 * k + 1] = a[2 * k] * b[2 * k + 1] + a[2 * k + 1] * b[2 * k];
+		a[2 * k] = re;
+	}
+	const recorded = new Float64Array(plan.size);
+	plan.inverse(a, recorded);
+	// A little background noise, as in a real recording.
+	let state = 7;
+	for (let i = 0; i < recorded.length; i++) {
+		state = (state * 1103515245 + 12345) % 2147483648;
+		recorded[i] += 1e-5 * (state / 2147483648 - 0.5);
+	}
+	const sweepRecording = write('sweep-recorded-10s-96k.wav', recorded.subarray(0, 10 * sampleRate), sampleRate);
+	const sweepReference = write('sweep-8s-96k.wav', sweep.samples, sampleRate);
+	return [
+		{ id: 'ir3-octave', label: '3 s 48 kHz IR, octaves', file: ir3, bands: 'octave', goals: { cold: 0.3, warm: 0.2, cli: 0.75 } },
+		{ id: 'ir3-third', label: '3 s 48 kHz IR, thirds', file: ir3, bands: 'third', goals: { cold: 0.3, warm: 0.2, cli: 0.75 } },
+		{ id: 'ir10', label: '10 s 96 kHz IR, octaves', file: ir10, bands: 'octave', goals: { cold: 0.3, warm: 0.2, cli: 0.6 } },
+		{
+			id: 'sweep10',
+			label: '10 s 96 kHz sweep, octaves',
+			file: sweepRecording,
+			bands: 'octave',
+			reference: sweepReference,
+			goals: { cold: 0.3, warm: 0.2, cli: 0.75 }
+		}
+	];
 }
 
-/** Child process: decode the reference outside the timing, then time the whole recording analysis. */
-function sweepCaseChild(recordingPath: string, referencePath: string): void {
-	const reference = decodeWav(readFileSync(referencePath)).samples;
-	const bytes = readFileSync(recordingPath);
-	const before = memoryLine();
-	const stages: Stages = {};
-	const started = performance.now();
-	const result = analyseRecording(bytes, {
-		channel: 1,
-		reference,
-		onStage: (stage, ms) => (stages[stage] = ms)
-	});
-	const elapsed = performance.now() - started;
-	console.log(`10 s @ 96 kHz stereo recorded sweep: ${elapsed.toFixed(0)} ms (target < 1.5 s), T30 broadband ${result.broadband.t30S?.toFixed(3)} s`);
-	console.log(`    stages (ms): ${stagesLine(stages)}`);
-	console.log(`    memory before: ${before}`);
-	console.log(`    memory after:  ${memoryLine()} (target peak < 300 MB)`);
+/** Child process: one fresh engine, timed on its first call and on the next ones. */
+async function engineChild(file: string, bands: 'octave' | 'third', reference: string | undefined): Promise<void> {
+	const { analyseRecording } = await import('../src/lib/analysis/analyse');
+	const { decodeWav } = await import('../src/lib/analysis/wav');
+	const bytes = readFileSync(file);
+	const played = reference ? decodeWav(readFileSync(reference)) : null;
+	const samples = decodeWav(bytes).samples.length;
+	const rssBefore = process.memoryUsage().rss;
+	// Decoding is left out of the time, as SciPy's file reading is.
+	const timed = (curves: boolean) => {
+		let decodeMs = 0;
+		const started = performance.now();
+		analyseRecording(bytes, {
+			bands,
+			curves,
+			reference: played?.samples,
+			referenceSampleRate: played?.sampleRate,
+			onStage: (stage, ms) => {
+				if (stage === 'decode') decodeMs = ms;
+			}
+		});
+		return performance.now() - started - decodeMs;
+	};
+	const coldMs = timed(true);
+	const peakRss = process.resourceUsage().maxRSS * 1024;
+	const warm = Array.from({ length: WARM_RUNS }, () => timed(true));
+	const noCurves = Array.from({ length: WARM_RUNS + 1 }, () => timed(false));
+	const result: EngineTiming = {
+		coldMs,
+		warmMs: median(warm),
+		coldNoCurvesMs: noCurves[0],
+		warmNoCurvesMs: median(noCurves.slice(1)),
+		// The file's own samples (8 bytes each, decoded) are in rssBefore.
+		bytesPerSample: Math.max(0, peakRss - rssBefore) / samples,
+		samples
+	};
+	process.stdout.write(JSON.stringify(result));
 }
 
-const [mode, recordingPath, referencePath] = process.argv.slice(2);
-if (mode === '--sweep-child') {
-	sweepCaseChild(recordingPath, referencePath);
+/** Cold engine timing in a fresh process (the first call of that process is the cold one). */
+function engineInProcess(c: Case): EngineTiming {
+	const args = ['--import', 'tsx', self, '--engine-child', c.file, c.bands, ...(c.reference ? [c.reference] : [])];
+	const child = spawnSync(process.execPath, args, { cwd: root, encoding: 'utf8', maxBuffer: 1 << 20 });
+	if (child.status !== 0) throw new Error(`engine child failed: ${child.stderr}`);
+	return JSON.parse(child.stdout) as EngineTiming;
+}
+
+function scipyInProcess(c: Case): ScipyTiming {
+	const args = [pipeline, '--bench', c.file, '--bands', c.bands, '--runs', String(WARM_RUNS), ...(c.reference ? ['--reference', c.reference] : [])];
+	const child = spawnSync(PYTHON, args, { encoding: 'utf8' });
+	if (child.status !== 0) throw new Error(`SciPy pipeline failed (needs ${PYTHON} with python3-scipy): ${child.stderr}`);
+	return JSON.parse(child.stdout) as ScipyTiming;
+}
+
+/** Whole process under /usr/bin/time: wall and CPU seconds (children included). */
+function wholeProcess(command: string[]): { wallS: number; cpuS: number } {
+	const child = spawnSync('/usr/bin/time', ['-f', '%e %U %S', ...command], { cwd: root, encoding: 'utf8', maxBuffer: 16 << 20 });
+	if (child.status !== 0) throw new Error(`${command.join(' ')} failed: ${child.stderr}`);
+	const [wall, user, system] = child.stderr.trim().split('\n').pop()!.split(' ').map(Number);
+	return { wallS: wall, cpuS: user + system };
+}
+
+const cliEngine = (c: Case) => ['npx', 'tsx', 'scripts/analyze.ts', c.file, '--bands', c.bands, ...(c.reference ? ['--reference', c.reference] : [])];
+const cliScipy = (c: Case) => [PYTHON, pipeline, c.file, '--bands', c.bands, ...(c.reference ? ['--reference', c.reference] : [])];
+
+const ratio = (value: number) => `${value.toFixed(2)}×`;
+const mark = (value: number, goal: number) => `${ratio(value)} ${value <= goal ? 'ok' : `(goal ≤ ${goal}×)`}`;
+
+async function main(argv: string[]): Promise<void> {
+	const option = (name: string) => {
+		const i = argv.indexOf(name);
+		return i >= 0 ? argv[i + 1] : undefined;
+	};
+	const rounds = Number(option('--rounds') ?? 3);
+	const only = option('--only')?.split(',');
+	const cases = (await writeInputs(mkdtempSync(join(tmpdir(), 'ringdown-bench-'))))
+		.filter((c) => !only || only.includes(c.id));
+	console.log(`engine vs SciPy (${PYTHON}), ${rounds} interleaved rounds; load average at start ${load()} (1, 5, 15 min)`);
+
+	for (const c of cases) {
+		const pairs: { engine: EngineTiming; scipy: ScipyTiming }[] = [];
+		for (let round = 0; round < rounds; round++) {
+			const scipy = scipyInProcess(c);
+			const engine = engineInProcess(c);
+			pairs.push({ engine, scipy });
+		}
+		const m = (f: (pair: (typeof pairs)[number]) => number) => median(pairs.map(f));
+		console.log(`\n${c.label} (${pairs[0].engine.samples} samples)`);
+		console.log(
+			`  in-process, with curves: first ${m((p) => p.engine.coldMs).toFixed(0)} ms, then ${m((p) => p.engine.warmMs).toFixed(0)} ms;` +
+				` SciPy first ${m((p) => p.scipy.coldMs).toFixed(0)} ms, then ${m((p) => p.scipy.warmMs).toFixed(0)} ms`
+		);
+		console.log(
+			`    ratio first ${mark(m((p) => p.engine.coldMs / p.scipy.coldMs), c.goals.cold)}, warm ${mark(m((p) => p.engine.warmMs / p.scipy.warmMs), c.goals.warm)};` +
+				` first call / lower bound (${m((p) => p.scipy.lowerBoundMs).toFixed(0)} ms) ${mark(m((p) => p.engine.coldMs / p.scipy.lowerBoundMs), 4)}`
+		);
+		console.log(
+			`  in-process, no curves (the command line): first ${m((p) => p.engine.coldNoCurvesMs).toFixed(0)} ms, then ${m((p) => p.engine.warmNoCurvesMs).toFixed(0)} ms;` +
+				` ratio warm ${ratio(m((p) => p.engine.warmNoCurvesMs / p.scipy.warmMs))}`
+		);
+		console.log(`  peak memory beyond the decoded file: ${m((p) => p.engine.bytesPerSample).toFixed(1)} bytes per sample (goal ≤ 20)`);
+		if (!argv.includes('--no-cli')) {
+			const cli: { engine: ReturnType<typeof wholeProcess>; scipy: ReturnType<typeof wholeProcess> }[] = [];
+			for (let round = 0; round < rounds; round++) cli.push({ scipy: wholeProcess(cliScipy(c)), engine: wholeProcess(cliEngine(c)) });
+			const n = (f: (pair: (typeof cli)[number]) => number) => median(cli.map(f));
+			console.log(
+				`  command line, whole process: CPU ${n((p) => p.engine.cpuS).toFixed(2)} s vs SciPy ${n((p) => p.scipy.cpuS).toFixed(2)} s, ratio ${mark(n((p) => p.engine.cpuS / p.scipy.cpuS), c.goals.cli)};` +
+					` wall ${n((p) => p.engine.wallS).toFixed(2)} s vs ${n((p) => p.scipy.wallS).toFixed(2)} s, ratio ${ratio(n((p) => p.engine.wallS / p.scipy.wallS))}`
+			);
+		}
+		console.log(`  load average now ${load()}`);
+	}
+}
+
+const argv = process.argv.slice(2);
+if (argv[0] === '--engine-child') {
+	await engineChild(argv[1], argv[2] as 'octave' | 'third', argv[3]);
 } else {
-	impulseResponseCase();
-	const inputs = writeSweepInputs(mkdtempSync(join(tmpdir(), 'ringdown-bench-')));
-	const self = fileURLToPath(import.meta.url);
-	const child = spawnSync(process.execPath, ['--import', 'tsx', self, '--sweep-child', inputs.recording, inputs.reference], {
-		encoding: 'utf8',
-		stdio: ['ignore', 'pipe', 'inherit']
-	});
-	process.stdout.write(child.stdout);
-	if (child.status !== 0) process.exitCode = 1;
+	await main(argv);
 }

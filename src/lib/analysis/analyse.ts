@@ -173,6 +173,17 @@ function waterfall(samples: Float64Array, sampleRate: number, start: number): An
 	return cumulativeSpectralDecay(samples, sampleRate, start, { durationMs, analysisEndMs: Math.min(availableMs, durationMs + 500) });
 }
 
+/** The curves of a result analysed without them: every list empty. */
+function noCurves(): AnalysisCurves {
+	return {
+		frequencyResponse: { freqHz: [], db: [] },
+		frequencyResponseSmoothed: Object.fromEntries(SMOOTHING_FRACTIONS.map((fraction) => [String(fraction), []])) as unknown as Record<SmoothingKey, number[]>,
+		decay: [],
+		etc: { timesMs: [], levelDb: [] },
+		waterfall: { timesMs: [], freqHz: [], levelsDb: [] }
+	};
+}
+
 function reflectionsOf(samples: Float64Array, sampleRate: number, start: number, options: AnalysisOptions): DetectedReflection[] {
 	const detected = detectReflections(samples, sampleRate, start, {
 		thresholdDb: options.reflectionThresholdDb,
@@ -268,23 +279,26 @@ function analyse(
 	directSoundNote(broadbandAnalysis.directToReverberantDb, warnings);
 	const broadband = bandMetrics(0, 0, broadbandAnalysis);
 
+	const withCurves = options.curves ?? true;
 	const decayPoints = Math.max(2, Math.min(MAX_DECAY_POINTS, Math.floor(DECAY_POINT_BUDGET / (bank.filters.length + 1))));
-	const decayCurves = [decayCurve(BROADBAND, broadbandAnalysis, sampleRate, decayPoints)];
+	const decayCurves = withCurves ? [decayCurve(BROADBAND, broadbandAnalysis, sampleRate, decayPoints)] : [];
 	const bands = bank.filters.map((filter, i) => {
 		const end = Math.max(fullLength, Math.min(samples.length, provenance.completeLengthAt?.(COMPLETE_ABOVE_UPPER_EDGE * filter.band.upperHz) ?? samples.length));
 		const squared = filtered(filter.padding, end, (from, zeros) => bank.filterZeroPhase(i, samples, from, end, scratch, zeros));
 		const analysis = clock.time('decay', () => analyseDecay(squared, sampleRate, { bandwidthHz: filter.bandwidthHz, startIndex: filter.padding }));
 		collectWarnings(filter.band.nominalHz, analysis, warnings);
-		decayCurves.push(decayCurve(filter.band.nominalHz, analysis, sampleRate, decayPoints));
+		if (withCurves) decayCurves.push(decayCurve(filter.band.nominalHz, analysis, sampleRate, decayPoints));
 		return bandMetrics(filter.band.nominalHz, filter.band.exactHz, analysis);
 	});
 
-	const curves: AnalysisCurves = clock.time('curves', () => ({
-		...frequencyCurves(full, sampleRate, start),
-		decay: decayCurves,
-		etc: energyTimeCurve(full, sampleRate, start, direct),
-		waterfall: waterfall(full, sampleRate, start)
-	}));
+	const curves: AnalysisCurves = withCurves
+		? clock.time('curves', () => ({
+				...frequencyCurves(full, sampleRate, start),
+				decay: decayCurves,
+				etc: energyTimeCurve(full, sampleRate, start, direct),
+				waterfall: waterfall(full, sampleRate, start)
+			}))
+		: noCurves();
 	const reflections = clock.time('reflections', () => reflectionsOf(full, sampleRate, start, options));
 	clock.report();
 

@@ -87,6 +87,13 @@ export function applyHalfHannFadeIn(x: Float64Array, length: number): void {
 	for (let k = 0; k < n; k++) x[k] *= 0.5 * (1 - Math.cos((Math.PI * (k + 1)) / (n + 1)));
 }
 
+/** The gains applyHalfHannFadeIn applies over `length` samples. */
+export function halfHannFadeIn(length: number): Float64Array {
+	const gains = new Float64Array(length);
+	for (let k = 0; k < length; k++) gains[k] = 0.5 * (1 - Math.cos((Math.PI * (k + 1)) / (length + 1)));
+	return gains;
+}
+
 export function applyHalfHannFadeOut(x: Float64Array, length: number): void {
 	const n = Math.min(length, x.length);
 	const start = x.length - n;

@@ -1,5 +1,5 @@
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -119,6 +119,21 @@ describe('scripts/analyze.ts', () => {
 	const scratch = mkdtempSync(join(tmpdir(), 'ringdown-cli-'));
 	const notWav = join(scratch, 'notes.wav');
 	writeFileSync(notWav, 'these are notes, not audio');
+
+	it('--curves adds the chart curves the engine stores for the portal; without it there are none', async () => {
+		const { analyseRecording } = await import('../../../src/lib/analysis/analyse');
+		const plain = JSON.parse(run(fixture('decay-t0.5-48k.wav')).stdout);
+		expect(plain).not.toHaveProperty('curves');
+		const { status, stdout } = run(fixture('decay-t0.5-48k.wav'), '--curves');
+		expect(status).toBe(0);
+		const withCurves = JSON.parse(stdout);
+		const { curves, ...figures } = withCurves;
+		expect(figures).toEqual(plain);
+		const stored = JSON.parse(JSON.stringify(analyseRecording(readFileSync(fixture('decay-t0.5-48k.wav'))).curves));
+		expect(curves).toEqual(stored);
+		expect(curves.decay).toHaveLength(9); // broadband and the 8 octaves
+		expect(curves.waterfall.levelsDb.length).toBeGreaterThan(1);
+	}, 60_000);
 
 	it.each([
 		{ label: 'a missing file', args: [join(scratch, 'missing.wav')], pattern: /cannot read .*missing\.wav: no such file/ },
