@@ -5,6 +5,9 @@ import { sameBand, type BandVerdict } from '../analysis/targets';
 import type { BandMetrics } from '../analysis/types';
 import { toCsv, type CsvCell } from '../charts/csv';
 import { reverberationOf, type Side } from './reverberation';
+import type { GradeAssessment } from './grade';
+import type { DifferenceJudgement, Spread } from './spread';
+import type { BandStatistics, VisitStatistics } from './statistics';
 import { AVERAGED_METRICS, type AveragedMetric, type ComparisonModel, type SessionSummary } from './types';
 
 export const CAPTURE_BANDS_SCHEMA = 'ringdown.capture-bands/1';
@@ -78,15 +81,45 @@ function averageCells(values: Record<string, MetricAverage>): CsvCell[] {
 	});
 }
 
-/** Per band, the mean, sample standard deviation and count over positions of each metric; then broadband. */
+/** The 95 % interval of each metric's mean (low, high) and ISO 3382-2's σ of T30 and T20. */
+function spreadCells(metrics: Record<AveragedMetric, Spread> | undefined, uncertainty: BandStatistics['uncertainty'] | null): CsvCell[] {
+	return [
+		...AVERAGED_METRICS.flatMap((metric) => {
+			const decimals = METRIC_COLUMNS[metric].decimals;
+			return [rounded(metrics?.[metric]?.low, decimals), rounded(metrics?.[metric]?.high, decimals)];
+		}),
+		rounded(uncertainty?.t30S, 3),
+		rounded(uncertainty?.t20S, 3)
+	];
+}
+
+const SPREAD_HEADER = [...AVERAGED_METRICS.flatMap((m) => [column(m, 'ci95_low'), column(m, 'ci95_high')]), 'T30_iso_sigma_s', 'T20_iso_sigma_s'];
+const GRADE_HEADER = ['grade', 'source_positions', 'microphone_positions', 'combinations'];
+
+function gradeCells(grade: GradeAssessment): CsvCell[] {
+	return [grade.grade ?? 'below survey', grade.counts.sources, grade.counts.microphones, grade.counts.combinations];
+}
+
+/**
+ * Per band, the mean, sample standard deviation and count over positions of each metric; then
+ * broadband. After them: each mean's 95 % confidence interval, ISO 3382-2's σ of T30 and T20,
+ * and the visit's measurement grade with its counts (the same on every row).
+ */
 export function sessionAverageCsv(summary: SessionSummary): string {
-	const header = ['centre_Hz', ...AVERAGED_METRICS.flatMap((m) => [column(m, 'mean'), column(m, 'std'), `${METRIC_COLUMNS[m].name}_count`])];
-	const rows = summary.average.map((band) => [band.centerHz, ...averageCells(band.values)]);
-	rows.push([BROADBAND_LABEL, ...averageCells(summary.broadbandAverage)]);
+	const header = ['centre_Hz', ...AVERAGED_METRICS.flatMap((m) => [column(m, 'mean'), column(m, 'std'), `${METRIC_COLUMNS[m].name}_count`]), ...SPREAD_HEADER, ...GRADE_HEADER];
+	const stats = summary.statistics;
+	const grade = gradeCells(stats.grade);
+	const rows = summary.average.map((band) => {
+		const s = stats.bands.find((b) => sameBand(b.centerHz, band.centerHz));
+		return [band.centerHz, ...averageCells(band.values), ...spreadCells(s?.metrics, s?.uncertainty ?? null), ...grade];
+	});
+	rows.push([BROADBAND_LABEL, ...averageCells(summary.broadbandAverage), ...spreadCells(stats.broadband, null), ...grade]);
 	return toCsv(header, rows);
 }
 
 const COMPARED_TIMES: AveragedMetric[] = ['t30S', 't20S', 'edtS'];
+/** Metrics whose differences are judged against the spread in the comparison table. */
+const JUDGED: AveragedMetric[] = ['t30S', 't20S', 'c80Db'];
 const COMPARED_LEVELS: AveragedMetric[] = ['c50Db', 'c80Db'];
 const METRIC_NAMES: Record<'t30S' | 't20S', string> = { t30S: 'T30', t20S: 'T20' };
 
@@ -102,7 +135,9 @@ function verdictMetric(band: BandDifference, side: Side, verdict: BandVerdict | 
 /**
  * Per band of the matched positions' averages: before, after, difference and relative change
  * of T30, T20 and EDT; before, after and difference of C50 and C80; the target range; each
- * visit's verdict and the metric it rests on (T30, or T20 where T30 could not be measured).
+ * visit's verdict and the metric it rests on (T30, or T20 where T30 could not be measured); the
+ * T30, T20 and C80 differences judged against the spread of the positions (judgeDifference:
+ * within-spread, within-jnd, beyond, unknown) with the spread's limit; each visit's grade.
  */
 export function comparisonCsv(model: ComparisonModel): string {
 	const header = [
@@ -115,8 +150,12 @@ export function comparisonCsv(model: ComparisonModel): string {
 		'verdict_before',
 		'verdict_before_metric',
 		'verdict_after',
-		'verdict_after_metric'
+		'verdict_after_metric',
+		...JUDGED.flatMap((m) => [`${METRIC_COLUMNS[m].name}_against_spread`, column(m, 'spread_limit')]),
+		'grade_before',
+		'grade_after'
 	];
+	const grades = [model.matchedStatistics.baseline.grade.grade ?? 'below survey', model.matchedStatistics.treated.grade.grade ?? 'below survey'];
 	const rows = model.differences.map((band): CsvCell[] => {
 		const times = COMPARED_TIMES.flatMap((metric) => {
 			const d = band.metrics[metric];
@@ -142,7 +181,12 @@ export function comparisonCsv(model: ComparisonModel): string {
 			before?.verdict ?? null,
 			verdictMetric(band, 'before', before),
 			after?.verdict ?? null,
-			verdictMetric(band, 'after', after)
+			verdictMetric(band, 'after', after),
+			...JUDGED.flatMap((metric) => {
+				const j = model.judgements.find((x) => sameBand(x.centerHz, band.centerHz))?.metrics[metric];
+				return [j?.verdict ?? 'unknown', rounded(j?.spreadLimit, METRIC_COLUMNS[metric].decimals)];
+			}),
+			...grades
 		];
 	});
 	return toCsv(header, rows);
@@ -207,6 +251,23 @@ export interface SessionAverageJson {
 	outliers: SessionSummary['outliers'];
 	/** Power average of the positions' unsmoothed responses. */
 	averageResponse: { freqHz: number[]; db: number[] } | null;
+	/** Per band the spread of each metric with its 95 % interval, ISO 3382-2's σ of T20/T30; T_mid; the grade. */
+	statistics: StatisticsJson;
+	/** The same over one-third-octave bands, when the positions have them. */
+	thirds: { bands: { centerHz: number; metrics: MetricAverages }[]; statistics: StatisticsJson } | null;
+}
+
+export interface StatisticsJson {
+	bandKind: VisitStatistics['bandKind'];
+	positions: number;
+	bands: { centerHz: number; metrics: Record<AveragedMetric, Spread>; uncertainty: BandStatistics['uncertainty'] }[];
+	broadband: Record<AveragedMetric, Spread>;
+	midFrequency: VisitStatistics['midFrequency'];
+	grade: GradeAssessment;
+}
+
+export function statisticsJson(stats: VisitStatistics): StatisticsJson {
+	return structuredClone({ bandKind: stats.bandKind, positions: stats.positions, bands: stats.bands, broadband: stats.broadband, midFrequency: stats.midFrequency, grade: stats.grade });
 }
 
 function averagesJson(values: Record<string, MetricAverage>): MetricAverages {
@@ -228,7 +289,11 @@ export function sessionAverageJson(summary: SessionSummary): SessionAverageJson 
 		bands: summary.average.map((band) => ({ centerHz: band.centerHz, metrics: averagesJson(band.values) })),
 		broadband: averagesJson(summary.broadbandAverage),
 		outliers: summary.outliers.map((o) => ({ ...o })),
-		averageResponse: summary.averageResponse ? { freqHz: [...summary.averageResponse.freqHz], db: [...summary.averageResponse.db] } : null
+		averageResponse: summary.averageResponse ? { freqHz: [...summary.averageResponse.freqHz], db: [...summary.averageResponse.db] } : null,
+		statistics: statisticsJson(summary.statistics),
+		thirds: summary.thirds
+			? { bands: summary.thirds.average.map((band) => ({ centerHz: band.centerHz, metrics: averagesJson(band.values) })), statistics: statisticsJson(summary.thirds.statistics) }
+			: null
 	};
 }
 
@@ -254,7 +319,15 @@ export interface ComparisonJson {
 		target: { targetS: number; lowerS: number; upperS: number } | null;
 		verdictBefore: VerdictJson | null;
 		verdictAfter: VerdictJson | null;
+		/** Each metric's difference judged against the spread of the matched positions. */
+		judgements: Record<string, DifferenceJudgement>;
 	}[];
+	/** Each matched position before and after, band by band (same shape as `bands[].metrics`). */
+	positions: { positionLabel: string; bands: { centerHz: number; metrics: BandDifference['metrics'] }[]; broadband: BandDifference['metrics'] }[];
+	/** Both visits over the matched positions: spread, T_mid and grade. */
+	statistics: { baseline: StatisticsJson; treated: StatisticsJson };
+	/** One-third-octave bands compared, when both visits have them. */
+	thirds: { bands: { centerHz: number; metrics: BandDifference['metrics']; judgements: Record<string, DifferenceJudgement> }[] } | null;
 	summary: string[];
 }
 
@@ -281,9 +354,25 @@ export function comparisonJson(model: ComparisonModel): ComparisonJson {
 				metrics: Object.fromEntries(Object.entries(band.metrics).map(([metric, d]) => [metric, { ...d }])),
 				target: target ? { targetS: target.targetS, lowerS: target.lowerS, upperS: target.upperS } : null,
 				verdictBefore: target ? verdictJson(band, 'before', verdictFor(model.verdicts.before, band.centerHz)) : null,
-				verdictAfter: target ? verdictJson(band, 'after', verdictFor(model.verdicts.after, band.centerHz)) : null
+				verdictAfter: target ? verdictJson(band, 'after', verdictFor(model.verdicts.after, band.centerHz)) : null,
+				judgements: structuredClone(model.judgements.find((j) => sameBand(j.centerHz, band.centerHz))?.metrics ?? {})
 			};
 		}),
+		positions: model.positionDifferences.map((p) => ({
+			positionLabel: p.positionLabel,
+			bands: p.differences.map((d) => ({ centerHz: d.centerHz, metrics: structuredClone(d.metrics) })),
+			broadband: structuredClone(p.broadband)
+		})),
+		statistics: { baseline: statisticsJson(model.matchedStatistics.baseline), treated: statisticsJson(model.matchedStatistics.treated) },
+		thirds: model.thirds
+			? {
+					bands: model.thirds.differences.map((d) => ({
+						centerHz: d.centerHz,
+						metrics: structuredClone(d.metrics),
+						judgements: structuredClone(model.thirds?.judgements.find((j) => sameBand(j.centerHz, d.centerHz))?.metrics ?? {})
+					}))
+				}
+			: null,
 		summary: [...model.summary]
 	};
 }
