@@ -2,7 +2,8 @@
 // units together laid out on the stock sheets, the weight of each unit and the cost.
 import { diffuserBuildSheet, membraneTrapBuildSheet, porousFrameBuildSheet, WELL_SHIM_PART, type BuildSheet, type ConstructionBoard } from '../treatment/buildsheet';
 import type { DiffuserConstruction } from '../treatment/diffuser-build';
-import { cutList, sameThickness, type CutList, type StockSheet } from '../treatment/cutlist';
+import { sameThickness, type CutList, type StockSheet } from '../treatment/cutlist';
+import { cutPlan, type CutPlan, type SawLimit } from '../treatment/cut-plan';
 import { PANEL_STOCK } from '../treatment/membrane';
 import type { Part } from '../treatment/parts';
 import { diffuserDesignOf, panelStockOf } from './items';
@@ -112,18 +113,27 @@ export function stockSheetsOf(rows: readonly StockSheetRow[]): StockSheet[] {
 	return rows.map((r) => ({ id: r.label, lengthMm: r.lengthMm, widthMm: r.widthMm, thicknessMm: r.thicknessMm, finishedFaces: r.finishedFaces, grain: r.grain }));
 }
 
-export type PlanCutList = { ok: true; cutList: CutList } | { ok: false; error: string };
+export type PlanCutList = { ok: true; cutList: CutList; plan: CutPlan } | { ok: false; error: string };
 
-/** The cut list of every part on the plan's stock, or why the parts cannot be cut from it. */
-export function planCutList(builds: readonly ItemBuild[], stock: readonly StockSheetRow[], kerfMm: number): PlanCutList {
+/**
+ * The cut list of every part on the plan's stock, with each sheet's finishing, breakdown and
+ * numbered cuts (treatment/cut-plan.ts), or why the parts cannot be cut from it.
+ */
+export function planCutList(builds: readonly ItemBuild[], stock: readonly StockSheetRow[], kerfMm: number, sawLimit: SawLimit | null = null): PlanCutList {
 	const parts = planParts(builds).filter((p) => !offSheet(p));
 	if (parts.length === 0) return { ok: false, error: 'The plan has no item to build yet.' };
 	if (stock.length === 0) return { ok: false, error: 'Add the sheets you buy (size, thickness, faces) to lay the parts out.' };
 	try {
-		return { ok: true, cutList: cutList(parts, stockSheetsOf(stock), { kerfMm }) };
+		const plan = cutPlan(parts, stockSheetsOf(stock), { kerfMm, sawLimit });
+		return { ok: true, cutList: plan.cutList, plan };
 	} catch (e) {
 		return { ok: false, error: (e as Error).message };
 	}
+}
+
+/** The saw limit of a plan's settings, or null for whole sheets. */
+export function sawLimitOf(settings: { sawMaxLengthMm?: number | null; sawMaxWidthMm?: number | null }): SawLimit | null {
+	return settings.sawMaxLengthMm && settings.sawMaxWidthMm ? { lengthMm: settings.sawMaxLengthMm, widthMm: settings.sawMaxWidthMm } : null;
 }
 
 /** Sheet thicknesses the parts need that the stock list lacks, with the face grade each needs. */

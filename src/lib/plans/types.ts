@@ -8,6 +8,7 @@ import type {
 	openingFormSchema,
 	planSettingsSchema,
 	porousParamsSchema,
+	sawLimitFormSchema,
 	stockFormSchema
 } from '../schemas/treatment';
 import type { Material } from '../treatment/materials';
@@ -61,8 +62,11 @@ export type PlanOpening = { id: number } & z.output<ReturnType<typeof openingFor
 /** A sheet size the cut list may use, mm; its price per sheet in the plan's currency. */
 export type StockSheetRow = { id: number } & z.output<ReturnType<typeof stockFormSchema>>;
 
-/** Which visits the prediction rests on, the air, the saw kerf, currency and notes. */
-export type PlanSettings = z.output<ReturnType<typeof planSettingsSchema>>;
+/**
+ * Which visits the prediction rests on, the air, the saw kerf, currency and notes; and the
+ * largest piece the saw takes (null: whole sheets), saved by its own form on the build page.
+ */
+export type PlanSettings = z.output<ReturnType<typeof planSettingsSchema>> & z.output<ReturnType<typeof sawLimitFormSchema>>;
 
 export const DEFAULT_PLAN_SETTINGS: PlanSettings = {
 	baselineSessionId: null,
@@ -72,7 +76,9 @@ export const DEFAULT_PLAN_SETTINGS: PlanSettings = {
 	kerfMm: 3,
 	currency: 'EUR',
 	notes: '',
-	includeInReport: true
+	includeInReport: true,
+	sawMaxLengthMm: null,
+	sawMaxWidthMm: null
 };
 
 /** Finish assumed for a surface nobody has described yet. */

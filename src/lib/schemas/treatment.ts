@@ -321,7 +321,13 @@ export function stockFormSchema(unit: LengthUnit) {
 		thicknessMm: lengthField('sheet thickness', bare, LIMITS.sheetThicknessMm),
 		finishedFaces: z.enum(['0', '1', '2'], { error: 'Say how many faces are good: 0, 1 or 2.' }).transform((v) => Number(v) as 0 | 1 | 2),
 		grain: z.enum(['along-length', 'none'], { error: 'Say whether the sheet has a grain.' }),
-		price: optionalPrice
+		price: optionalPrice,
+		// The size it is sold by, when the caliper reads otherwise ("1/2 in" ply that measures 12 mm).
+		nominalThicknessMm: z
+			.string()
+			.optional()
+			.transform((v) => (v && v.trim() ? v : null))
+			.pipe(z.union([z.null(), lengthField('nominal thickness', bare, LIMITS.sheetThicknessMm)]))
 	});
 }
 
@@ -345,6 +351,23 @@ export function planSettingsSchema(unit: LengthUnit) {
 		notes: z.string().trim().max(5000, { error: 'Keep the notes under 5000 characters.' }).optional().transform((v) => v ?? ''),
 		includeInReport: checkbox
 	});
+}
+
+/**
+ * The largest piece the saw (and the person at it) can handle, length × width; both empty for
+ * whole sheets. Sheets larger than that are halved or quartered first.
+ */
+export function sawLimitFormSchema(unit: LengthUnit) {
+	const bare: BareUnit = unit;
+	const optionalLength = (label: string) =>
+		z
+			.string()
+			.optional()
+			.transform((v) => (v && v.trim() ? v : null))
+			.pipe(z.union([z.null(), lengthField(label, bare, LIMITS.sheetSideMm)]));
+	return z
+		.object({ sawMaxLengthMm: optionalLength('longest piece the saw takes'), sawMaxWidthMm: optionalLength('widest piece the saw takes') })
+		.refine((v) => (v.sawMaxLengthMm === null) === (v.sawMaxWidthMm === null), { path: ['sawMaxWidthMm'], error: 'Give both the length and the width, or leave both empty for whole sheets.' });
 }
 
 export const idFieldSchema = (name: string) => z.object({ [name]: z.coerce.number().int().positive() });

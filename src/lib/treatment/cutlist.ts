@@ -20,6 +20,12 @@ export interface CutListOptions {
 	kerfMm?: number;
 	/** Leftovers at least this large in both directions are reported as offcuts, mm. */
 	minOffcutMm?: number;
+	/**
+	 * Order pieces are laid in: widest first (default), or parts with more finished faces first
+	 * (then widest), so the parts that show both faces fill the first sheets and those sheets
+	 * alone need finishing on both sides.
+	 */
+	order?: 'widest-first' | 'finished-first';
 }
 
 export interface Rect {
@@ -39,6 +45,10 @@ export interface Placement extends Rect {
 }
 
 export interface Strip {
+	/** Start of the strip along the sheet: 0, or the panel's start when the sheet is broken down first. */
+	x?: number;
+	/** Length of sheet the strip runs along (the sheet's, or its panel's, length). */
+	lengthMm?: number;
 	y: number;
 	widthMm: number;
 	/** Length used by parts and the kerfs between them. */
@@ -54,6 +64,8 @@ export interface SheetLayout {
 	offcuts: Rect[];
 	kerfMm: number;
 	partsAreaMm2: number;
+	/** Pieces the sheet is first cut into (halves, quarters) when the saw cannot take it whole. */
+	panels?: Rect[];
 }
 
 export interface CutList {
@@ -134,6 +146,7 @@ export function cutList(parts: readonly Part[], stock: readonly StockSheet[], op
 	const minOffcut = options.minOffcutMm ?? 100;
 	if (!(kerf >= 0)) throw new Error(`kerf must be zero or positive, got ${kerf} mm`);
 	if (!(minOffcut > 0)) throw new Error(`minimum offcut must be positive, got ${minOffcut} mm`);
+	if (options.order !== undefined && options.order !== 'widest-first' && options.order !== 'finished-first') throw new Error(`unknown piece order "${String(options.order)}"`);
 	checkStock(stock);
 	parts.forEach(checkPart);
 	if (new Set(stock.map((s) => s.id)).size !== stock.length) throw new Error('stock sheet ids must be unique');
@@ -150,7 +163,7 @@ export function cutList(parts: readonly Part[], stock: readonly StockSheet[], op
 	const sheets: SheetLayout[] = [];
 	const perStock: CutList['perStock'] = [];
 	for (const { stock: s, pieceIndexes } of groups.values()) {
-		const laid = packGroup(pieces, pieceIndexes, s, kerf);
+		const laid = packGroup(pieces, pieceIndexes, s, kerf, options.order ?? 'widest-first');
 		laid.forEach((l) => (l.offcuts = offcutsOf(l, minOffcut)));
 		sheets.push(...laid);
 		perStock.push({ stockId: s.id, sheets: laid.length });
@@ -169,14 +182,15 @@ export function cutList(parts: readonly Part[], stock: readonly StockSheet[], op
 	};
 }
 
-function packGroup(pieces: readonly Part[], indexes: readonly number[], stock: StockSheet, kerf: number): SheetLayout[] {
+function packGroup(pieces: readonly Part[], indexes: readonly number[], stock: StockSheet, kerf: number, order: 'widest-first' | 'finished-first'): SheetLayout[] {
 	// Preferred orientation: the narrower side across the strip, so strips stay thin.
 	const items = indexes.map((i) => {
 		const options = allowedOrientations(pieces[i], stock);
 		const preferred = [...options].sort((a, b) => a.dy - b.dy || b.dx - a.dx)[0];
 		return { index: i, options, preferred };
 	});
-	items.sort((a, b) => b.preferred.dy - a.preferred.dy || b.preferred.dx - a.preferred.dx);
+	const faces = (i: number) => (order === 'finished-first' ? pieces[i].finishedFaces : 0);
+	items.sort((a, b) => faces(b.index) - faces(a.index) || b.preferred.dy - a.preferred.dy || b.preferred.dx - a.preferred.dx);
 
 	const open: OpenSheet[] = [];
 	const newSheet = (): OpenSheet => {

@@ -54,14 +54,27 @@ export function cuttingDiagramSvg(layout: SheetLayout, options: CuttingDiagramOp
 			);
 		}
 	}
-	// Saw cuts: rip cuts below each strip across the sheet, crosscuts after each part within its strip.
+	// Breakdown cuts first (halves, quarters), drawn heavier; then within each panel the rip cuts
+	// below each strip, and crosscuts after each part within its strip.
+	const panels = layout.panels ?? [];
+	const breakdownCut = `stroke="#7f1d1d" stroke-width="${px(Math.max(kerf * s, 1.5))}" stroke-dasharray="6 3"`;
+	for (const panel of panels) {
+		const xEnd = panel.x + panel.lengthMm + kerf / 2;
+		const yEnd = panel.y + panel.widthMm + kerf / 2;
+		if (xEnd < stock.lengthMm) out.push(line(X(xEnd), Y(panel.y), X(xEnd), Y(panel.y + panel.widthMm), breakdownCut));
+		if (yEnd < stock.widthMm) out.push(line(X(panel.x), Y(yEnd), X(panel.x + panel.lengthMm), Y(yEnd), breakdownCut));
+	}
 	const cut = `stroke="#b91c1c" stroke-width="${px(Math.max(kerf * s, 0.75))}" stroke-opacity="0.7"`;
 	for (const strip of layout.strips) {
+		const x0 = strip.x ?? 0;
+		const length = strip.lengthMm ?? stock.lengthMm;
+		const panelBottom = panels.find((p) => x0 >= p.x - 1e-6 && x0 < p.x + p.lengthMm && strip.y >= p.y - 1e-6 && strip.y < p.y + p.widthMm);
 		const yCut = strip.y + strip.widthMm + kerf / 2;
-		if (yCut < stock.widthMm) out.push(line(X(0), Y(yCut), X(stock.lengthMm), Y(yCut), cut));
-		for (const p of layout.placements.filter((q) => q.y === strip.y)) {
+		const yLimit = panelBottom ? panelBottom.y + panelBottom.widthMm : stock.widthMm;
+		if (yCut < yLimit) out.push(line(X(x0), Y(yCut), X(x0 + length), Y(yCut), cut));
+		for (const p of layout.placements.filter((q) => q.y === strip.y && q.x >= x0 - 1e-6 && q.x < x0 + length)) {
 			const xCut = p.x + p.lengthMm + kerf / 2;
-			if (xCut < stock.lengthMm) out.push(line(X(xCut), Y(strip.y), X(xCut), Y(strip.y + strip.widthMm), cut));
+			if (xCut < x0 + length) out.push(line(X(xCut), Y(strip.y), X(xCut), Y(strip.y + strip.widthMm), cut));
 		}
 	}
 	out.push('</svg>');

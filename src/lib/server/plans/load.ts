@@ -8,7 +8,7 @@ import type { SessionSummary } from '../../results/types';
 import { PLANNING_BANDS_HZ } from '../../treatment/bands';
 import { evaluatePlan, type PlanEvaluation } from '../../plans/evaluate';
 import { measuredTimes, type MeasuredTimes } from '../../plans/measured';
-import { planBuilds, planCost, planCutList, type ItemBuild, type PlanCost, type PlanCutList } from '../../plans/build';
+import { planBuilds, planCost, planCutList, sawLimitOf, type ItemBuild, type PlanCost, type PlanCutList } from '../../plans/build';
 import type { StoredPlan } from '../../plans/types';
 import { getRoom, type RoomRow } from '../queries/rooms';
 import { getProject } from '../queries/projects';
@@ -67,7 +67,7 @@ export async function loadPlanView(k: Knex, roomId: number, organizationId: numb
 		target: defaultTarget({ ...room }, PLANNING_BANDS_HZ)
 	});
 	const { builds, errors } = planBuilds(plan.items);
-	const cut = planCutList(builds, plan.stock, plan.settings.kerfMm);
+	const cut = planCutList(builds, plan.stock, plan.settings.kerfMm, sawLimitOf(plan.settings));
 	return { room, plan, customMaterials, before, after, evaluation, builds, buildErrors: errors, cut, cost: planCost(plan.items, plan.stock, cut) };
 }
 

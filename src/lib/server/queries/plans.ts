@@ -87,7 +87,9 @@ const settingsOf = (r: Record<string, unknown>): PlanSettings => ({
 	kerfMm: Number(r.kerf_mm),
 	currency: String(r.currency),
 	notes: (r.notes as string | null) ?? '',
-	includeInReport: Boolean(r.include_in_report)
+	includeInReport: Boolean(r.include_in_report),
+	sawMaxLengthMm: r.saw_max_length_mm === null || r.saw_max_length_mm === undefined ? null : Number(r.saw_max_length_mm),
+	sawMaxWidthMm: r.saw_max_width_mm === null || r.saw_max_width_mm === undefined ? null : Number(r.saw_max_width_mm)
 });
 
 function itemOf(r: Record<string, unknown>): PlanItem {
@@ -115,7 +117,8 @@ function stockOf(r: Record<string, unknown>): StockSheetRow {
 		thicknessMm: Number(r.thickness_mm),
 		finishedFaces: Number(r.finished_faces) as 0 | 1 | 2,
 		grain: r.grain as StockSheetRow['grain'],
-		price: r.price === null ? null : Number(r.price)
+		price: r.price === null ? null : Number(r.price),
+		nominalThicknessMm: r.nominal_thickness_mm === null || r.nominal_thickness_mm === undefined ? null : Number(r.nominal_thickness_mm)
 	};
 }
 
@@ -169,6 +172,8 @@ export async function updatePlanSettings(k: Knex, planId: number, s: PlanSetting
 		currency: s.currency,
 		notes: s.notes || null,
 		include_in_report: s.includeInReport,
+		saw_max_length_mm: s.sawMaxLengthMm,
+		saw_max_width_mm: s.sawMaxWidthMm,
 		updated_by: userId
 	});
 }
@@ -216,7 +221,8 @@ export async function insertStock(k: Knex, planId: number, s: Omit<StockSheetRow
 		thickness_mm: s.thicknessMm,
 		finished_faces: s.finishedFaces,
 		grain: s.grain,
-		price: s.price
+		price: s.price,
+		nominal_thickness_mm: s.nominalThicknessMm
 	});
 	return id;
 }

@@ -4,7 +4,7 @@ import * as plans from '$lib/server/plans/service';
 import { planChange, planRemoval } from '$lib/server/plans/actions';
 import { inFormUnit, planUnit } from '$lib/server/plans/units';
 import { missingStock, separateParts } from '$lib/plans/build';
-import { planSettingsSchema, stockFormSchema } from '$lib/schemas/treatment';
+import { planSettingsSchema, sawLimitFormSchema, stockFormSchema } from '$lib/schemas/treatment';
 import { roleAllows } from '$lib/roles';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -46,5 +46,11 @@ export const actions = {
 		const scope = await authorize(locals, 'review:write', { roomId });
 		const schema = inFormUnit(scope, (unit) => planSettingsSchema(unit).pick({ kerfMm: true }));
 		return planChange(request, schema, 'kerf', (input) => plans.savePlanSettings(scope, roomId, input));
+	},
+
+	saveSawLimit: async ({ locals, params, request }) => {
+		const roomId = Number(params.roomId);
+		const scope = await authorize(locals, 'review:write', { roomId });
+		return planChange(request, inFormUnit(scope, sawLimitFormSchema), 'saw', (input) => plans.savePlanSettings(scope, roomId, input));
 	}
 } satisfies Actions;
