@@ -184,7 +184,7 @@ export function strongReflectionCount(reflections: readonly Pick<DetectedReflect
 }
 
 /** Mean count of strong reflections per position; null without positions. */
-export function strongReflectionsPerPosition(positions: readonly Pick<PositionResult, 'reflections'>[]): number | null {
+export function strongReflectionsPerPosition(positions: readonly { reflections: readonly Pick<DetectedReflection, 'delayMs' | 'levelDb'>[] }[]): number | null {
 	return positions.length === 0 ? null : mean(positions.map((p) => strongReflectionCount(p.reflections)));
 }
 

@@ -41,13 +41,20 @@ export async function replaceAnalysis(k: Knex, captureId: number, result: Analys
 export async function analysedCapturesOfSession(
 	k: Knex,
 	sessionId: number
-): Promise<{ captureId: number; positionLabel: string; metrics: StoredMetrics; curves: AnalysisCurves }[]> {
+): Promise<{ captureId: number; positionLabel: string; sourceLabel: string | null; micLabel: string | null; metrics: StoredMetrics; curves: AnalysisCurves }[]> {
 	const rows = await k('captures as c')
 		.join('positions as po', 'po.id', 'c.position_id')
 		.join('analyses as a', 'a.capture_id', 'c.id')
 		.where({ 'c.session_id': sessionId, 'c.status': 'analysed' })
 		.orderBy('po.label')
 		.orderBy('c.id', 'desc')
-		.select('c.id', 'po.label', 'a.metrics', 'a.curves');
-	return rows.map((r) => ({ captureId: r.id, positionLabel: r.label, metrics: readJson(r.metrics), curves: readJson(r.curves) }));
+		.select('c.id', 'po.label', 'po.source_label', 'po.mic_label', 'a.metrics', 'a.curves');
+	return rows.map((r) => ({
+		captureId: r.id,
+		positionLabel: r.label,
+		sourceLabel: r.source_label ?? null,
+		micLabel: r.mic_label ?? null,
+		metrics: readJson(r.metrics),
+		curves: readJson(r.curves)
+	}));
 }

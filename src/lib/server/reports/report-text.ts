@@ -1,6 +1,8 @@
 // The report's fixed wording: how the numbers were measured, and the safety cautions.
 import type { ComparisonModel } from '../../results/types';
 import { formatBand } from '../../format';
+import type { GradeAssessment } from '../../results/grade';
+import { countsPhrase, GRADE_NAMES } from '../../results/statistics-text';
 import type { ReportBandRow } from './report-data';
 
 /** Basis named for a target when the report does not say otherwise. */
@@ -16,11 +18,19 @@ function bandSpan(rows: readonly ReportBandRow[]): string {
 	return `${formatBand(rows[0].centerHz)} to ${formatBand(rows[rows.length - 1].centerHz)}`;
 }
 
+/** "the positions compared (2 source positions, …) reach its survey grade", per visit when the grades differ. */
+export function gradeClause(comparison: Pick<ComparisonModel, 'matchedStatistics'>): string {
+	const { baseline, treated } = comparison.matchedStatistics;
+	const name = (g: GradeAssessment) => (g.grade === null ? 'none of its grades' : `its ${GRADE_NAMES[g.grade]} grade`);
+	if (baseline.grade.grade === treated.grade.grade) return `the positions compared (${countsPhrase(treated.grade)}) reach ${name(treated.grade)}`;
+	return `the positions compared reach ${name(baseline.grade)} before (${countsPhrase(baseline.grade)}) and ${name(treated.grade)} after (${countsPhrase(treated.grade)})`;
+}
+
 /** One paragraph per point of method, stating what this comparison actually rests on. */
 export function methodParagraphs(comparison: ComparisonModel, rows: readonly ReportBandRow[], targetBasis: string): string[] {
 	const matched = comparison.matchedPositions;
 	const paragraphs = [
-		'Measured following the engineering method of ISO 3382-2. Impulse responses come from exponential sine sweeps played and recorded in the room, or from impulse responses uploaded as such.',
+		`Measured following ISO 3382-2; ${gradeClause(comparison)}. Impulse responses come from exponential sine sweeps played and recorded in the room, or from impulse responses uploaded as such.`,
 		`Results are given in octave bands from ${bandSpan(rows)}, filtered as specified for band filters in IEC 61260-1. Reverberation time is T30, evaluated from the decay curve obtained by Schroeder backward integration; where the dynamic range of a band did not allow T30, T20 is given instead and marked.`,
 		matched.length === 0
 			? 'No measurement position was measured in both visits, so no spatial average could be compared.'

@@ -13,6 +13,11 @@ import {
 	MISSING
 } from '../../format';
 import type { ProblemBandView, SessionSummary } from '../../results/types';
+import type { GradeAssessment } from '../../results/grade';
+import type { DifferenceVerdict } from '../../results/spread';
+import { reverberationJudgement } from '../../results/statistics';
+import { formatSpread, GRADE_NAMES, gradeHeadline, gradeSentences } from '../../results/statistics-text';
+import { sameBand } from '../../analysis/targets';
 import type { ReportContent, ReportPlan } from './document';
 import { drawBandChart } from './band-chart';
 import { drawBullets, drawFactPanel, drawHeading, drawParagraphs } from './blocks';
@@ -70,9 +75,82 @@ export function drawTitleBlock(pen: ReportPen, report: ReportContent): void {
 			{ label: 'Use', value: orMissing(room.roomUse) },
 			{ label: 'Before', value: visitFact(baseline) },
 			{ label: 'After', value: visitFact(treated) },
-			{ label: 'Positions', value: `${matchedPositions.length} compared` }
+			{ label: 'Positions', value: `${matchedPositions.length} compared` },
+			{ label: 'Grade (ISO 3382-2)', value: gradesFact(report) }
 		]
 	]);
+}
+
+function gradeName(grade: GradeAssessment): string {
+	return grade.grade === null ? 'below survey' : GRADE_NAMES[grade.grade];
+}
+
+function gradesFact(report: ReportContent): string {
+	const { baseline, treated } = report.comparison.matchedStatistics;
+	const before = gradeName(baseline.grade);
+	const after = gradeName(treated.grade);
+	return before === after ? capitalise(before) : `${capitalise(before)} before, ${after} after`;
+}
+
+const SPREAD_VERDICT: Record<DifferenceVerdict, string> = {
+	'within-spread': 'Within the spread',
+	'within-jnd': 'Below the JND',
+	beyond: 'A real change',
+	unknown: MISSING
+};
+
+/** How sure the numbers are: each visit's grade, T_mid, and per band the means with their 95 % intervals and the change judged against the spread. */
+export function drawSpread(pen: ReportPen, report: ReportContent): void {
+	const { matchedStatistics, judgements, matchedPositions } = report.comparison;
+	drawHeading(pen, 'How sure these numbers are', 60);
+	const paragraphs: string[] = [];
+	for (const [side, stats] of [
+		['Before', matchedStatistics.baseline],
+		['After', matchedStatistics.treated]
+	] as const) {
+		paragraphs.push(`${side}: ${gradeHeadline(stats.grade)}. ${gradeSentences(stats.grade).join(' ')}`);
+	}
+	const midBefore = matchedStatistics.baseline.midFrequency;
+	const midAfter = matchedStatistics.treated.midFrequency;
+	if (midBefore || midAfter) {
+		paragraphs.push(`Mid-frequency reverberation time Tmid (mean of 500 Hz and 1 kHz): ${formatSeconds(midBefore?.valueS)} s before, ${formatSeconds(midAfter?.valueS)} s after.`);
+	}
+	drawParagraphs(pen, paragraphs);
+	if (matchedPositions.length === 0) return;
+	const s = (v: number) => formatSeconds(v);
+	const rows = matchedStatistics.baseline.bands.map((before) => {
+		const after = matchedStatistics.treated.bands.find((b) => sameBand(b.centerHz, before.centerHz));
+		const judged = reverberationJudgement(judgements.find((j) => sameBand(j.centerHz, before.centerHz)));
+		return [
+			formatBand(before.centerHz),
+			formatSpread(before.metrics.t30S, s),
+			formatSpread(after?.metrics.t30S, s),
+			formatSeconds(before.metrics.t20S.mean),
+			formatSeconds(after?.metrics.t20S.mean),
+			formatSeconds(after?.uncertainty.t30S ?? after?.uncertainty.t20S),
+			judged ? `${SPREAD_VERDICT[judged.verdict]}${judged.metric === 't20S' ? ' (T20)' : ''}` : MISSING
+		];
+	});
+	pen.gap(4);
+	drawTable(
+		pen,
+		[
+			{ header: 'Band', weight: 0.8, face: 'mono' },
+			{ header: 'T30 before (s, 95 %)', weight: 1.35, align: 'right', face: 'mono' },
+			{ header: 'T30 after (s, 95 %)', weight: 1.35, align: 'right', face: 'mono' },
+			{ header: 'T20 before (s)', weight: 1, align: 'right', face: 'mono' },
+			{ header: 'T20 after (s)', weight: 1, align: 'right', face: 'mono' },
+			{ header: 'ISO uncertainty after (s)', weight: 1.2, align: 'right', face: 'mono' },
+			{ header: 'The change', weight: 1.3 }
+		],
+		rows
+	);
+	pen.gap(4);
+	for (const note of [
+		'Mean ± half-width of its 95 % confidence interval over the positions (Student t). ISO uncertainty: the standard uncertainty of the averaged T30 (T20 where T30 is missing) from bandwidth and number of decays, ISO 3382-2.',
+		'Within the spread: the change is no larger than the scatter between positions (95 % interval of the difference of the means), so it may not be real. Below the JND: larger than that but under what a listener would notice (ISO 3382-1: 5 % for reverberation times).'
+	])
+		pen.use('prose', TYPE.small, COLOURS.inkSoft).flow(note);
 }
 
 export function drawSummary(pen: ReportPen, summary: readonly string[]): void {
@@ -285,6 +363,7 @@ export function drawReport(pen: ReportPen, report: ReportContent): void {
 	drawSummary(pen, report.comparison.summary);
 	drawCharts(pen, report, rows);
 	drawBandTable(pen, rows, report.comparison.target.length > 0);
+	drawSpread(pen, report);
 	drawProblemBands(pen, report.problemBands);
 	drawAdvice(pen, report.advice);
 	if (report.plan) drawPlan(pen, report.plan);

@@ -17,12 +17,20 @@ import { planReport, type PlanReport } from '../../plans/report';
 import { unitOfSystem } from '../../schemas/treatment';
 
 /**
- * Pages draw only the averaged responses, so each position's own curves are left out of what
- * is sent to the browser (with 2 × 12 positions they are most of the payload).
+ * Pages draw the averaged responses with every smoothing, and a matched position's own response
+ * only at 1/6 octave (to overlay chosen positions), so the rest of each position's curves is left
+ * out of what is sent to the browser (with 2 × 12 positions they are most of the payload).
  */
 function withoutPositionCurves(model: ComparisonModel): ComparisonModel {
+	const matched = new Set(model.matchedPositions);
 	const none = { freqHz: [], db: [], smoothed: { '1': [], '3': [], '6': [], '12': [], '24': [] } };
-	const slim = (s: SessionSummary): SessionSummary => ({ ...s, positions: s.positions.map((p) => ({ ...p, response: none })) });
+	const slim = (s: SessionSummary): SessionSummary => ({
+		...s,
+		positions: s.positions.map((p) => ({
+			...p,
+			response: matched.has(p.positionLabel) ? { freqHz: p.response.freqHz, db: [], smoothed: { ...none.smoothed, '6': p.response.smoothed['6'] } } : none
+		}))
+	});
 	return { ...model, baseline: slim(model.baseline), treated: slim(model.treated) };
 }
 

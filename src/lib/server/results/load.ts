@@ -16,7 +16,7 @@ export async function loadPositionResults(k: Knex, sessionId: number): Promise<P
 	for (const a of await analysedCapturesOfSession(k, sessionId)) {
 		if (seen.has(a.positionLabel)) continue; // an older capture of the same position
 		seen.add(a.positionLabel);
-		results.push(positionFromAnalysis(a.captureId, a.positionLabel, a.metrics, a.curves));
+		results.push(positionFromAnalysis(a.captureId, a.positionLabel, a.metrics, a.curves, { sourceLabel: a.sourceLabel, micLabel: a.micLabel }));
 	}
 	return results;
 }

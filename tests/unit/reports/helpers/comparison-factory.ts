@@ -3,7 +3,8 @@
 import { averageBands, bandDifferences, type MetricRow } from '../../../../src/lib/analysis/compare';
 import { bs1116Target, judgeAgainstTarget } from '../../../../src/lib/analysis/targets';
 import type { SmoothingKey } from '../../../../src/lib/analysis/types';
-import { AVERAGED_METRICS, type ComparisonModel, type ProblemBandView, type SessionSummary } from '../../../../src/lib/results/types';
+import { judgeBands, visitStatistics } from '../../../../src/lib/results/statistics';
+import { AVERAGED_METRICS, type ComparisonModel, type PositionResult, type ProblemBandView, type SessionSummary } from '../../../../src/lib/results/types';
 import type { ReportDocument } from '../../../../src/lib/server/reports/pdf';
 
 export const OCTAVE_CENTRES = [63, 125, 250, 500, 1000, 2000, 4000, 8000];
@@ -55,6 +56,8 @@ function session(id: number, spec: VisitSpec, labels: string[]): SessionSummary 
 		})
 	);
 	const average = averageBands(rows, AVERAGED_METRICS as unknown as string[]);
+	// Each position as the statistics read it: its bands, one loudspeaker, its own microphone label.
+	const positions = labels.map((label, i) => ({ positionLabel: label, sourceLabel: 'main pair', micLabel: label, bands: rows[i], broadband: {} })) as unknown as PositionResult[];
 	return {
 		sessionId: id,
 		conditionLabel: spec.conditionLabel,
@@ -63,7 +66,9 @@ function session(id: number, spec: VisitSpec, labels: string[]): SessionSummary 
 		average,
 		broadbandAverage: {},
 		averageResponse: spec.response,
-		outliers: []
+		outliers: [],
+		statistics: visitStatistics(positions),
+		thirds: null
 	};
 }
 
@@ -96,7 +101,11 @@ export function buildComparison(spec: ComparisonSpec): ComparisonModel {
 		differences: bandDifferences(baseline.average, treated.average, AVERAGED_METRICS as unknown as string[]),
 		target,
 		verdicts: { before: judgeAgainstTarget(measured(baseline), target), after: judgeAgainstTarget(measured(treated), target) },
-		summary: spec.summary
+		summary: spec.summary,
+		judgements: judgeBands(baseline.statistics.bands, treated.statistics.bands),
+		positionDifferences: [],
+		matchedStatistics: { baseline: baseline.statistics, treated: treated.statistics },
+		thirds: null
 	};
 }
 
