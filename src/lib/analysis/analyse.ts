@@ -11,7 +11,7 @@ import { findDirectSoundPeak, findImpulseStart } from './onset';
 import { REQUIRED_INR_DB } from './quality';
 import { decayLevelDb } from './schroeder';
 import { attributeReflections, detectReflections, firstOrderImages, type DetectedReflection } from './reflections';
-import { frequencyResponse, logSpacedCurve, smoothFractionalOctave, SMOOTHING_FRACTIONS } from './response';
+import { frequencyResponse, logSpacedCurve, smoothedLogSpacedCurves, SMOOTHING_FRACTIONS } from './response';
 import { cumulativeSpectralDecay } from './timefrequency';
 import type {
 	AnalysisCurves,
@@ -145,10 +145,8 @@ function frequencyCurves(samples: Float64Array, sampleRate: number, start: numbe
 	const grid = { pointsPerOctave: FREQUENCY_POINTS_PER_OCTAVE };
 	const raw = logSpacedCurve(spectrum.freqHz, spectrum.powerDb, grid);
 	const smoothed = {} as Record<SmoothingKey, number[]>;
-	for (const fraction of SMOOTHING_FRACTIONS) {
-		const curve = smoothFractionalOctave(spectrum.freqHz, spectrum.powerDb, fraction);
-		smoothed[String(fraction) as SmoothingKey] = logSpacedCurve(spectrum.freqHz, curve, grid).db;
-	}
+	const curves = smoothedLogSpacedCurves(spectrum.freqHz, spectrum.powerDb, SMOOTHING_FRACTIONS, grid);
+	SMOOTHING_FRACTIONS.forEach((fraction, i) => (smoothed[String(fraction) as SmoothingKey] = curves[i]));
 	return { frequencyResponse: raw, frequencyResponseSmoothed: smoothed };
 }
 

@@ -87,12 +87,6 @@ export function applyHalfHannFadeIn(x: Float64Array, length: number): void {
 	for (let k = 0; k < n; k++) x[k] *= 0.5 * (1 - Math.cos((Math.PI * (k + 1)) / (n + 1)));
 }
 
-/** The gains applyHalfHannFadeIn applies over `length` samples. */
-export function halfHannFadeIn(length: number): Float64Array {
-	const gains = new Float64Array(length);
-	for (let k = 0; k < length; k++) gains[k] = 0.5 * (1 - Math.cos((Math.PI * (k + 1)) / (length + 1)));
-	return gains;
-}
 
 export function applyHalfHannFadeOut(x: Float64Array, length: number): void {
 	const n = Math.min(length, x.length);
@@ -170,11 +164,34 @@ export function smoothFractionalOctave(
 	powerDb: Float64Array,
 	fraction: SmoothingFraction
 ): Float64Array {
+	checkFraction(fraction);
+	checkCurve(freqHz, powerDb, 'smoothFractionalOctave');
+	const n = freqHz.length;
+	const { prefixHi, prefixLo } = powerPrefixSums(powerDb);
+	const halfWidth = 2 ** (1 / (2 * fraction));
+	const smoothed = new Float64Array(n);
+	let low = 0; // first bin ≥ lower edge
+	let high = 0; // first bin > upper edge
+	for (let k = 0; k < n; k++) {
+		const lowerEdge = freqHz[k] / halfWidth;
+		const upperEdge = freqHz[k] * halfWidth;
+		while (freqHz[low] < lowerEdge) low++;
+		if (high <= k) high = k + 1;
+		while (high < n && freqHz[high] <= upperEdge) high++;
+		smoothed[k] = windowMeanDb(prefixHi, prefixLo, low, high);
+	}
+	return smoothed;
+}
+
+function checkFraction(fraction: number): void {
 	if (!(SMOOTHING_FRACTIONS as readonly number[]).includes(fraction)) {
 		throw new AnalysisInputError('invalid_option', `fraction must be one of ${SMOOTHING_FRACTIONS.join(', ')}, got ${fraction}`);
 	}
-	checkCurve(freqHz, powerDb, 'smoothFractionalOctave');
-	const n = freqHz.length;
+}
+
+/** Prefix sums of the bins' powers in double-double precision (hi + lo). */
+function powerPrefixSums(powerDb: Float64Array): { prefixHi: Float64Array; prefixLo: Float64Array } {
+	const n = powerDb.length;
 	const prefixHi = new Float64Array(n + 1);
 	const prefixLo = new Float64Array(n + 1);
 	for (let k = 0; k < n; k++) {
@@ -186,21 +203,57 @@ export function smoothFractionalOctave(
 		prefixHi[k + 1] = hi;
 		prefixLo[k + 1] = prefixLo[k] + error;
 	}
-	const halfWidth = 2 ** (1 / (2 * fraction));
-	const smoothed = new Float64Array(n);
-	let low = 0; // first bin ≥ lower edge
-	let high = 0; // first bin > upper edge
-	for (let k = 0; k < n; k++) {
-		const lowerEdge = freqHz[k] / halfWidth;
-		const upperEdge = freqHz[k] * halfWidth;
-		while (freqHz[low] < lowerEdge) low++;
-		if (high <= k) high = k + 1;
-		while (high < n && freqHz[high] <= upperEdge) high++;
-		const sum = prefixHi[high] - prefixHi[low] + (prefixLo[high] - prefixLo[low]);
-		const mean = Math.max(sum / (high - low), POWER_FLOOR);
-		smoothed[k] = 10 * Math.log10(mean);
+	return { prefixHi, prefixLo };
+}
+
+/** Mean power of bins low…high−1 in dB, floored. */
+function windowMeanDb(prefixHi: Float64Array, prefixLo: Float64Array, low: number, high: number): number {
+	const sum = prefixHi[high] - prefixHi[low] + (prefixLo[high] - prefixLo[low]);
+	return 10 * Math.log10(Math.max(sum / (high - low), POWER_FLOOR));
+}
+
+/** First index whose frequency is ≥ edge (strict: > edge), from `from` on; n if none. */
+function firstBin(freqHz: Float64Array, from: number, edge: number, strict: boolean): number {
+	let low = from;
+	let high = freqHz.length;
+	while (low < high) {
+		const middle = (low + high) >>> 1;
+		if (strict ? freqHz[middle] > edge : freqHz[middle] >= edge) high = middle;
+		else low = middle + 1;
 	}
-	return smoothed;
+	return low;
+}
+
+/**
+ * The same curves as logSpacedCurve(freqHz, smoothFractionalOctave(freqHz, powerDb, b), options).db
+ * for each b, number for number, with the smoothing computed only at the bins the log-spaced
+ * points read (two per point) and one prefix sum for all the fractions.
+ */
+export function smoothedLogSpacedCurves(
+	freqHz: Float64Array,
+	powerDb: Float64Array,
+	fractions: readonly SmoothingFraction[],
+	options: LogSpacedOptions = {}
+): number[][] {
+	for (const fraction of fractions) checkFraction(fraction);
+	checkCurve(freqHz, powerDb, 'smoothFractionalOctave');
+	const grid = logGrid(freqHz, options, () => {
+		for (let k = 0; k < powerDb.length; k++) {
+			// Only +∞ makes a smoothed value infinite (−∞ is floored), which logSpacedCurve refuses.
+			if (powerDb[k] === Infinity) throw new AnalysisInputError('invalid_option', `logSpacedCurve: value at index ${k} is not finite`);
+		}
+	});
+	const { prefixHi, prefixLo } = powerPrefixSums(powerDb);
+	const n = freqHz.length;
+	return fractions.map((fraction) => {
+		const halfWidth = 2 ** (1 / (2 * fraction));
+		const smoothedAt = (k: number) => {
+			const low = firstBin(freqHz, 0, freqHz[k] / halfWidth, false);
+			const high = Math.max(k + 1, firstBin(freqHz, k + 1, freqHz[k] * halfWidth, true));
+			return windowMeanDb(prefixHi, prefixLo, low, Math.min(n, high));
+		};
+		return applyLogGrid(grid, smoothedAt);
+	});
 }
 
 export interface LogSpacedOptions {
@@ -221,6 +274,23 @@ export function logSpacedCurve(
 	options: LogSpacedOptions = {}
 ): LogSpacedCurve {
 	checkCurve(freqHz, powerDb, 'logSpacedCurve');
+	const grid = logGrid(freqHz, options, () => {
+		for (let k = 0; k < powerDb.length; k++) {
+			if (!Number.isFinite(powerDb[k])) throw new AnalysisInputError('invalid_option', `logSpacedCurve: value at index ${k} is not finite`);
+		}
+	});
+	return { freqHz: grid.freqHz, db: applyLogGrid(grid, (k) => powerDb[k]) };
+}
+
+/** The log-spaced points of a curve: each one's frequency, the bin at or below it and its weight toward the next bin (NaN: the bin's own value). */
+interface LogGrid {
+	freqHz: number[];
+	bins: Int32Array;
+	weights: Float64Array;
+}
+
+/** `checkValues` runs after the options are checked and before the range is. */
+function logGrid(freqHz: Float64Array, options: LogSpacedOptions, checkValues: () => void = () => {}): LogGrid {
 	const pointsPerOctave = options.pointsPerOctave ?? 48;
 	if (!Number.isInteger(pointsPerOctave) || pointsPerOctave < 1 || pointsPerOctave > 1000) {
 		throw new AnalysisInputError('invalid_option', `pointsPerOctave must be an integer in 1…1000, got ${pointsPerOctave}`);
@@ -230,9 +300,7 @@ export function logSpacedCurve(
 	if (!(Number.isFinite(fMinHz) && fMinHz > 0 && Number.isFinite(fMaxHz) && fMaxHz > fMinHz)) {
 		throw new AnalysisInputError('invalid_option', `need 0 < fMinHz < fMaxHz, got ${fMinHz} and ${fMaxHz}`);
 	}
-	for (let k = 0; k < powerDb.length; k++) {
-		if (!Number.isFinite(powerDb[k])) throw new AnalysisInputError('invalid_option', `logSpacedCurve: value at index ${k} is not finite`);
-	}
+	checkValues();
 	const firstPositive = freqHz[0] > 0 ? 0 : 1;
 	if (firstPositive >= freqHz.length) throw new AnalysisInputError('invalid_option', 'logSpacedCurve: no positive frequency in the input');
 	const bottom = Math.max(fMinHz, freqHz[firstPositive]);
@@ -240,18 +308,42 @@ export function logSpacedCurve(
 	if (bottom > top) throw new AnalysisInputError('invalid_option', `logSpacedCurve: ${fMinHz}…${fMaxHz} Hz lies outside the input's range`);
 
 	const count = Math.floor(pointsPerOctave * Math.log2(top / bottom) + 1e-9) + 1;
-	const out: LogSpacedCurve = { freqHz: new Array(count), db: new Array(count) };
+	const grid: LogGrid = { freqHz: new Array(count), bins: new Int32Array(count), weights: new Float64Array(count) };
 	let j = firstPositive; // freqHz[j] ≤ f < freqHz[j + 1]
 	for (let i = 0; i < count; i++) {
 		const f = Math.min(bottom * 2 ** (i / pointsPerOctave), top);
 		while (j + 1 < freqHz.length && freqHz[j + 1] <= f) j++;
-		let value = powerDb[j];
-		if (j + 1 < freqHz.length && f > freqHz[j]) {
-			const t = Math.log(f / freqHz[j]) / Math.log(freqHz[j + 1] / freqHz[j]);
-			value = powerDb[j] + t * (powerDb[j + 1] - powerDb[j]);
-		}
-		out.freqHz[i] = Math.round(f * 1000) / 1000;
-		out.db[i] = Math.round(value * 100) / 100;
+		grid.bins[i] = j;
+		grid.weights[i] = j + 1 < freqHz.length && f > freqHz[j] ? Math.log(f / freqHz[j]) / Math.log(freqHz[j + 1] / freqHz[j]) : NaN;
+		grid.freqHz[i] = Math.round(f * 1000) / 1000;
 	}
-	return out;
+	return grid;
+}
+
+/** Values at the grid's points, linear in dB between bins, rounded to 0.01 dB. */
+function applyLogGrid(grid: LogGrid, valueAt: (bin: number) => number): number[] {
+	const db: number[] = new Array(grid.bins.length);
+	// Neighbouring points often read the same bins.
+	const known = new Map<number, number>();
+	const at = (bin: number) => {
+		let value = known.get(bin);
+		if (value === undefined) {
+			value = valueAt(bin);
+			known.set(bin, value);
+		}
+		return value;
+	};
+	for (let i = 0; i < db.length; i++) {
+		const j = grid.bins[i];
+		const t = grid.weights[i];
+		let value: number;
+		if (Number.isNaN(t)) {
+			value = at(j);
+		} else {
+			const here = at(j);
+			value = here + t * (at(j + 1) - here);
+		}
+		db[i] = Math.round(value * 100) / 100;
+	}
+	return db;
 }

@@ -1,8 +1,14 @@
 // Cumulative spectral decay: how the spectrum of the remaining impulse response falls with
 // time, one slice per start time, for a waterfall chart of the low-frequency decay.
 import { AnalysisInputError } from './errors';
-import { RealFftPlan } from './fft';
-import { applyHalfHannFadeOut, halfHannFadeIn, logSpacedCurve, nextPowerOfTwo, POWER_FLOOR_DB, smoothFractionalOctave } from './response';
+import {
+	applyHalfHannFadeIn,
+	applyHalfHannFadeOut,
+	logSpacedCurve,
+	nextPowerOfTwo,
+	PowerSpectrumPlan,
+	smoothedLogSpacedCurves
+} from './response';
 
 export interface SpectralDecayOptions {
 	/** Start time of the last slice after startIndex (default 300 ms). */
@@ -28,83 +34,6 @@ export interface SpectralDecay {
 export const SPECTRAL_DECAY_FLOOR_DB = -80;
 /** Smoothing applied so the waterfall stays readable. */
 const SLICE_SMOOTHING = 6;
-
-const POWER_FLOOR = 10 ** (POWER_FLOOR_DB / 10);
-
-/**
- * Power spectra, in dB and floored at POWER_FLOOR_DB, of the first binCount bins of each slice
- * window[offset…] (zero-padded to fftSize) with a half-Hann rise over its first fadeIn samples.
- * The same numbers as one FFT per slice, for a fraction of the work: a slice's spectrum is the
- * spectrum of the rest of the window after its rise (the next slice's rest plus the samples
- * between them, summed as a DFT at the few bins needed) plus its own rise. Only the last slice's
- * rest takes an FFT. Phases are all taken re the window's start, which leaves the power unchanged.
- * Offsets must not decrease.
- */
-function sliceSpectra(window: Float64Array, offsets: number[], fadeIn: number, fftSize: number, binCount: number): Float64Array[] {
-	const mask = fftSize - 1;
-	// cos and sin of 2π·i/N: e^(−j2πkn/N) is read at (k·n) mod N.
-	const cos = new Float64Array(fftSize);
-	const sin = new Float64Array(fftSize);
-	for (let i = 0; i < fftSize; i++) {
-		const angle = (2 * Math.PI * i) / fftSize;
-		cos[i] = Math.cos(angle);
-		sin[i] = Math.sin(angle);
-	}
-	const restRe = new Float64Array(binCount);
-	const restIm = new Float64Array(binCount);
-	const last = offsets.length - 1;
-	let restStart = offsets[last] + fadeIn;
-	const plan = new RealFftPlan(fftSize);
-	const spectrum = new Float64Array(fftSize + 2);
-	plan.forward(window.subarray(restStart), spectrum);
-	for (let k = 0; k < binCount; k++) {
-		const index = (k * restStart) % fftSize;
-		const re = spectrum[2 * k];
-		const im = spectrum[2 * k + 1];
-		restRe[k] = re * cos[index] + im * sin[index];
-		restIm[k] = im * cos[index] - re * sin[index];
-	}
-	// Adds window[from…to) to the rest.
-	const addToRest = (from: number, to: number) => {
-		for (let k = 0; k < binCount; k++) {
-			let re = 0;
-			let im = 0;
-			let index = (k * from) % fftSize;
-			for (let n = from; n < to; n++) {
-				re += window[n] * cos[index];
-				im -= window[n] * sin[index];
-				index = (index + k) & mask;
-			}
-			restRe[k] += re;
-			restIm[k] += im;
-		}
-	};
-	const rise = halfHannFadeIn(fadeIn);
-	const powers: Float64Array[] = new Array(offsets.length);
-	for (let s = last; s >= 0; s--) {
-		const start = offsets[s];
-		const riseEnd = start + fadeIn;
-		if (riseEnd < restStart) {
-			addToRest(riseEnd, restStart);
-			restStart = riseEnd;
-		}
-		const power = new Float64Array(binCount);
-		for (let k = 0; k < binCount; k++) {
-			let re = restRe[k];
-			let im = restIm[k];
-			let index = (k * start) % fftSize;
-			for (let i = 0; i < fadeIn; i++) {
-				const value = window[start + i] * rise[i];
-				re += value * cos[index];
-				im -= value * sin[index];
-				index = (index + k) & mask;
-			}
-			power[k] = 10 * Math.log10(Math.max(re * re + im * im, POWER_FLOOR));
-		}
-		powers[s] = power;
-	}
-	return powers;
-}
 
 function requirePositive(name: string, value: number): void {
 	if (!Number.isFinite(value) || value <= 0) throw new AnalysisInputError('invalid_option', `${name} must be a finite number > 0, got ${value}`);
@@ -166,24 +95,30 @@ export function cumulativeSpectralDecay(
 	const window = ir.slice(startIndex, end);
 	applyHalfHannFadeOut(window, Math.floor(0.1 * windowLength));
 	// At least 1 Hz bins, so 1/6-octave smoothing still averages several bins at 20 Hz.
-	const fftSize = nextPowerOfTwo(Math.max(windowLength, sampleRate));
+	const plan = new PowerSpectrumPlan(nextPowerOfTwo(Math.max(windowLength, sampleRate)));
 	// Bins needed: up to fMax plus the upper half of its smoothing window.
-	const binCount = Math.min(fftSize / 2 + 1, Math.ceil((fMaxHz * 2 ** (1 / (2 * SLICE_SMOOTHING)) * fftSize) / sampleRate) + 2);
-	const freqHz = new Float64Array(binCount);
-	for (let k = 0; k < binCount; k++) freqHz[k] = (k * sampleRate) / fftSize;
-	const offsets = Array.from({ length: slices }, (_, s) => Math.round((s * (lastSliceStart - startIndex)) / (slices - 1)));
-	const powers = sliceSpectra(window, offsets, fadeIn, fftSize, binCount);
+	const binCount = Math.min(
+		plan.binCount,
+		Math.ceil((fMaxHz * 2 ** (1 / (2 * SLICE_SMOOTHING)) * plan.fftSize) / sampleRate) + 2
+	);
+	const freqHz = plan.frequencies(sampleRate, binCount);
+	const powerDb = new Float64Array(binCount);
 
 	const timesMs: number[] = [];
 	const curves: number[][] = [];
-	let grid: number[] = [];
+	const buffer = new Float64Array(windowLength);
 	for (let s = 0; s < slices; s++) {
-		const smoothed = smoothFractionalOctave(freqHz, powers[s], SLICE_SMOOTHING);
-		const curve = logSpacedCurve(freqHz, smoothed, { fMinHz, fMaxHz, pointsPerOctave });
-		grid = curve.freqHz;
-		timesMs.push(Math.round((1e6 * offsets[s]) / sampleRate) / 1000);
-		curves.push(curve.db);
+		const offset = Math.round((s * (lastSliceStart - startIndex)) / (slices - 1));
+		const slice = buffer.subarray(0, windowLength - offset);
+		slice.set(window.subarray(offset));
+		applyHalfHannFadeIn(slice, fadeIn);
+		plan.powerDb(slice, binCount, powerDb);
+		// Smoothed only where the log-spaced points read it: the same numbers as smoothing every bin.
+		const [curve] = smoothedLogSpacedCurves(freqHz, powerDb, [SLICE_SMOOTHING], { fMinHz, fMaxHz, pointsPerOctave });
+		timesMs.push(Math.round((1e6 * offset) / sampleRate) / 1000);
+		curves.push(curve);
 	}
+	const grid = logSpacedCurve(freqHz, powerDb, { fMinHz, fMaxHz, pointsPerOctave }).freqHz;
 	const reference = Math.max(...curves[0]);
 	const levelsDb = curves.map((curve) =>
 		curve.map((db) => Math.round(Math.max(SPECTRAL_DECAY_FLOOR_DB, db - reference) * 100) / 100)
