@@ -27,6 +27,9 @@ export interface ItemBuild {
 	/** Weight of the sheet-goods parts of one unit, kg (fibre, fabric and fixings not counted). */
 	unitWeightKg: number;
 	heavy: boolean;
+	/** Nominal thicknesses the stock measures otherwise, and the parts whose fit changes by more than the kerf. */
+	thickness: { nominalMm: number; measuredMm: number }[];
+	fitChanges: FitChange[];
 	/** A diffuser's board in both constructions: the chosen one and the other, per unit. */
 	constructions: { chosen: ConstructionFigures; other: ConstructionFigures; savingM2: number; savingPct: number } | null;
 }
@@ -38,18 +41,36 @@ export interface ConstructionFigures {
 	pieces: number;
 }
 
-export function itemBuildSheet(item: PlanItem): BuildSheet {
+/** Board thickness a part is cut at: the item's figure as typed (nominal), or what the caliper reads. */
+export type ThicknessOf = (nominalMm: number) => number;
+
+const asTyped: ThicknessOf = (mm) => mm;
+
+/**
+ * The measured thickness of the stock sold at a nominal one: a sheet whose nominal thickness is
+ * that figure (within 0.1 mm) gives its measured thickness; otherwise the figure itself.
+ */
+export function measuredThicknessOf(stock: readonly StockSheetRow[]): ThicknessOf {
+	return (nominalMm) => stock.find((s) => s.nominalThicknessMm !== null && s.nominalThicknessMm !== undefined && sameThickness(s.nominalThicknessMm, nominalMm))?.thicknessMm ?? nominalMm;
+}
+
+export function itemBuildSheet(item: PlanItem, thickness: ThicknessOf = asTyped): BuildSheet {
 	const p = item.params;
 	switch (p.kind) {
 		case 'diffuser':
-			return diffuserBuildSheet(diffuserDesignOf(p), { heightMm: item.heightMm, boardThicknessMm: p.boardThicknessMm, construction: p.construction ?? 'full-depth' });
+			return diffuserBuildSheet(diffuserDesignOf(p), {
+				heightMm: item.heightMm,
+				boardThicknessMm: thickness(p.boardThicknessMm),
+				finThicknessMm: thickness(p.finThicknessMm),
+				construction: p.construction ?? 'full-depth'
+			});
 		case 'porous':
 			return porousFrameBuildSheet({
 				widthMm: item.widthMm,
 				heightMm: item.heightMm,
 				absorberThicknessMm: p.thicknessMm,
 				airGapMm: p.airGapMm,
-				frameThicknessMm: p.frameThicknessMm,
+				frameThicknessMm: thickness(p.frameThicknessMm),
 				withBack: p.withBack,
 				fabricWrapped: p.fabricWrapped
 			});
@@ -58,10 +79,44 @@ export function itemBuildSheet(item: PlanItem): BuildSheet {
 				widthMm: item.widthMm,
 				heightMm: item.heightMm,
 				cavityDepthMm: p.cavityDepthMm,
-				panelThicknessMm: p.panelThicknessMm,
-				frameThicknessMm: p.frameThicknessMm
+				panelThicknessMm: thickness(p.panelThicknessMm),
+				frameThicknessMm: thickness(p.frameThicknessMm)
 			});
 	}
+}
+
+/** A part whose size at the measured thickness differs from the nominal drawing by more than the kerf. */
+export interface FitChange {
+	part: string;
+	nominal: { lengthMm: number; widthMm: number };
+	measured: { lengthMm: number; widthMm: number };
+	/** The larger of the two changes, mm (signed: negative when the part is smaller). */
+	changeMm: number;
+}
+
+/** Nominal thicknesses of an item and what the stock measures at each. */
+function thicknessesOf(item: PlanItem): number[] {
+	const p = item.params;
+	if (p.kind === 'diffuser') return [p.finThicknessMm, p.boardThicknessMm];
+	if (p.kind === 'porous') return [p.frameThicknessMm];
+	return [p.panelThicknessMm, p.frameThicknessMm];
+}
+
+function fitChanges(nominal: BuildSheet, measured: BuildSheet, kerfMm: number): FitChange[] {
+	const out: FitChange[] = [];
+	// Parts are matched by name and, among parts of one name (two sides of different depths), by order.
+	const seen = new Map<string, number>();
+	for (const m of measured.parts) {
+		const k = seen.get(m.name) ?? 0;
+		seen.set(m.name, k + 1);
+		const n = nominal.parts.filter((q) => q.name === m.name)[k];
+		if (!n) continue;
+		const dl = m.lengthMm - n.lengthMm;
+		const dw = m.widthMm - n.widthMm;
+		const change = Math.abs(dl) >= Math.abs(dw) ? dl : dw;
+		if (Math.abs(change) > kerfMm + 1e-9) out.push({ part: m.name, nominal: { lengthMm: n.lengthMm, widthMm: n.widthMm }, measured: { lengthMm: m.lengthMm, widthMm: m.widthMm }, changeMm: change });
+	}
+	return out;
 }
 
 /** Weight of parts from their volume; a membrane panel uses its own stock's density. */
@@ -73,22 +128,31 @@ function partsWeightKg(item: PlanItem, parts: readonly Part[]): number {
 	}, 0);
 }
 
-export function itemBuild(item: PlanItem): ItemBuild {
-	const sheet = itemBuildSheet(item);
+/** What the build needs of the workshop: the stock (measured thicknesses) and the saw kerf. */
+export interface Workshop {
+	stock?: readonly StockSheetRow[];
+	kerfMm?: number;
+}
+
+export function itemBuild(item: PlanItem, workshop: Workshop = {}): ItemBuild {
+	const measured = measuredThicknessOf(workshop.stock ?? []);
+	const sheet = itemBuildSheet(item, measured);
+	const differing = [...new Set(thicknessesOf(item))].map((nominalMm) => ({ nominalMm, measuredMm: measured(nominalMm) })).filter((t) => t.measuredMm !== t.nominalMm);
+	const changes = differing.length ? fitChanges(itemBuildSheet(item), sheet, workshop.kerfMm ?? 3) : [];
 	const unitWeightKg = partsWeightKg(item, sheet.parts);
 	const d = sheet.diffuser;
 	const figures = (b: ConstructionBoard): ConstructionFigures => ({ construction: b.construction, boardAreaM2: b.boardAreaM2, weightKg: b.volumeM3 * SHEET_DENSITY_KG_M3, pieces: b.pieces });
 	const constructions = d ? { chosen: figures(d.chosen), other: figures(d.other), savingM2: d.lowWasteSavingM2, savingPct: d.lowWasteSavingPct } : null;
-	return { itemId: item.id, label: item.label, quantity: item.quantity, sheet, unitWeightKg, heavy: unitWeightKg > HEAVY_UNIT_KG, constructions };
+	return { itemId: item.id, label: item.label, quantity: item.quantity, sheet, unitWeightKg, heavy: unitWeightKg > HEAVY_UNIT_KG, thickness: differing, fitChanges: changes, constructions };
 }
 
 /** Build sheets of every item; an item whose sizes cannot be built is reported instead. */
-export function planBuilds(items: readonly PlanItem[]): { builds: ItemBuild[]; errors: { itemId: number; label: string; message: string }[] } {
+export function planBuilds(items: readonly PlanItem[], workshop: Workshop = {}): { builds: ItemBuild[]; errors: { itemId: number; label: string; message: string }[] } {
 	const builds: ItemBuild[] = [];
 	const errors: { itemId: number; label: string; message: string }[] = [];
 	for (const item of items) {
 		try {
-			builds.push(itemBuild(item));
+			builds.push(itemBuild(item, workshop));
 		} catch (e) {
 			errors.push({ itemId: item.id, label: item.label, message: (e as Error).message });
 		}
@@ -110,6 +174,7 @@ export function separateParts(builds: readonly ItemBuild[]): Part[] {
 }
 
 export function stockSheetsOf(rows: readonly StockSheetRow[]): StockSheet[] {
+	// The cut list matches parts by the measured thickness (the parts are cut at it).
 	return rows.map((r) => ({ id: r.label, lengthMm: r.lengthMm, widthMm: r.widthMm, thicknessMm: r.thicknessMm, finishedFaces: r.finishedFaces, grain: r.grain }));
 }
 

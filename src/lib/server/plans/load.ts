@@ -66,7 +66,7 @@ export async function loadPlanView(k: Knex, roomId: number, organizationId: numb
 		measuredAfterS: after ? after.times.valuesS : null,
 		target: defaultTarget({ ...room }, PLANNING_BANDS_HZ)
 	});
-	const { builds, errors } = planBuilds(plan.items);
+	const { builds, errors } = planBuilds(plan.items, { stock: plan.stock, kerfMm: plan.settings.kerfMm });
 	const cut = planCutList(builds, plan.stock, plan.settings.kerfMm, sawLimitOf(plan.settings));
 	return { room, plan, customMaterials, before, after, evaluation, builds, buildErrors: errors, cut, cost: planCost(plan.items, plan.stock, cut) };
 }
