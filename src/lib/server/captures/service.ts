@@ -10,6 +10,7 @@ import { cancelCaptureJobs, enqueue } from '../jobs/queue';
 import { newObjectKey, storage, type Storage } from '../storage';
 import { transaction } from '../transaction';
 import { conflict, notFound, Problem } from '../problem';
+import { isDuplicateKey } from '../db-errors';
 import * as captureRows from '../queries/captures';
 import type { CaptureRow } from '../queries/captures';
 import { ensurePosition, isPositionOfSession } from '../queries/positions';
@@ -38,16 +39,17 @@ export interface CreatedCapture {
 
 const WAV_TYPE = 'audio/wav';
 
+function duplicateProblem(duplicate: CaptureRow) {
+	return conflict(`This file is already in the visit as ${duplicate.filename} (position ${duplicate.positionLabel}).`, {
+		code: 'duplicate',
+		details: { duplicateOf: duplicate.id }
+	});
+}
+
 /** Create the capture row (awaiting upload) and presigned PUTs for its file(s). */
 export async function createCapture(scope: Scope, sessionId: number, input: CreateCaptureInput, s: Storage = storage()): Promise<CreatedCapture> {
 	const k = db();
-	const duplicate = await captureRows.findDuplicate(k, sessionId, input.sha256);
-	if (duplicate) {
-		throw conflict(`This file is already in the visit as ${duplicate.filename} (position ${duplicate.positionLabel}).`, {
-			code: 'duplicate',
-			details: { duplicateOf: duplicate.id }
-		});
-	}
+	const recording = { sha256: input.sha256, channel: input.channel, sweepDefinitionId: input.sweepDefinitionId ?? null, referenceObjectKey: null as string | null };
 	if (input.sweepDefinitionId !== undefined && !(await isSweepOfOrganization(k, input.sweepDefinitionId, scope.organizationId))) {
 		throw new Problem(422, 'Pick a test signal of this organization.', { field: 'sweepDefinitionId' });
 	}
@@ -55,28 +57,44 @@ export async function createCapture(scope: Scope, sessionId: number, input: Crea
 	await s.ping();
 	const objectKey = newObjectKey('captures');
 	const referenceObjectKey = input.reference ? newObjectKey('references') : null;
+	recording.referenceObjectKey = referenceObjectKey;
 	// Presign first: if storage is misconfigured nothing has been written yet.
 	const url = await s.presignPut(objectKey, WAV_TYPE, input.sizeBytes);
 	const referenceUrl = referenceObjectKey && input.reference ? await s.presignPut(referenceObjectKey, WAV_TYPE, input.reference.sizeBytes) : null;
 
-	const id = await transaction(async (trx) => {
-		const id = await captureRows.insertCapture(trx, {
-			sessionId,
-			positionId: (await resolvePosition(trx, sessionId, input))!, // the schema asks for one of the two
-			kind: input.kind,
-			filename: input.filename,
-			objectKey,
-			referenceObjectKey,
-			sweepDefinitionId: input.sweepDefinitionId ?? null,
-			sha256: input.sha256,
-			sizeBytes: input.sizeBytes,
-			channel: input.channel,
-			createdBy: scope.user.id
+	let id: number;
+	try {
+		id = await transaction(async (trx) => {
+			// The visit first, then its positions and captures: one lock order for every change of a
+			// visit's captures, and the duplicate check below sees every announcement before it.
+			await captureRows.lockSessionForCaptures(trx, sessionId);
+			const duplicate = await captureRows.findDuplicate(trx, sessionId, recording);
+			if (duplicate) throw duplicateProblem(duplicate);
+			const id = await captureRows.insertCapture(trx, {
+				sessionId,
+				positionId: (await resolvePosition(trx, sessionId, input))!, // the schema asks for one of the two
+				kind: input.kind,
+				filename: input.filename,
+				objectKey,
+				referenceObjectKey,
+				sweepDefinitionId: input.sweepDefinitionId ?? null,
+				sha256: input.sha256,
+				sizeBytes: input.sizeBytes,
+				channel: input.channel,
+				createdBy: scope.user.id
+			});
+			await clearAnalysedNotice(trx, sessionId);
+			await audit(trx, scope, 'capture.created', 'capture', id, { filename: input.filename });
+			return id;
 		});
-		await clearAnalysedNotice(trx, sessionId);
-		await audit(trx, scope, 'capture.created', 'capture', id, { filename: input.filename });
-		return id;
-	});
+	} catch (e) {
+		// The unique key is the last word (a visit's lock is not taken by every writer of captures).
+		if (isDuplicateKey(e)) {
+			const duplicate = await captureRows.findDuplicate(k, sessionId, recording);
+			if (duplicate) throw duplicateProblem(duplicate);
+		}
+		throw e;
+	}
 	const headers = { 'content-type': WAV_TYPE };
 	return {
 		capture: (await captureRows.getCapture(k, id))!,
@@ -152,6 +170,7 @@ export async function uploadThroughServer(scope: Scope, sessionId: number, input
 export async function updateCapture(scope: Scope, captureId: number, input: UpdateCaptureInput): Promise<void> {
 	const capture = (await captureRows.getCapture(db(), captureId))!;
 	await transaction(async (trx) => {
+		await captureRows.lockSessionForCaptures(trx, capture.sessionId);
 		const positionId = await resolvePosition(trx, capture.sessionId, input);
 		await captureRows.updateCaptureLabels(trx, captureId, { filename: input.filename, positionId });
 		await audit(trx, scope, 'capture.updated', 'capture', captureId, input);

@@ -51,8 +51,33 @@ export async function getCapture(k: Knex, id: number): Promise<CaptureRow | unde
 	return base(k).where('c.id', id).first(columns);
 }
 
-export async function findDuplicate(k: Knex, sessionId: number, sha256: string): Promise<CaptureRow | undefined> {
-	return base(k).where({ 'c.session_id': sessionId, 'c.sha256': sha256 }).first(columns);
+/**
+ * What a capture was played with, as the `reference_identity` column spells it (see the
+ * migration that made it): the test signal's id, an uploaded reference file, or nothing.
+ */
+export function referenceIdentity(c: { sweepDefinitionId: number | null; referenceObjectKey: string | null }): string {
+	if (c.sweepDefinitionId !== null) return `signal:${c.sweepDefinitionId}`;
+	return c.referenceObjectKey !== null ? 'uploaded' : '';
+}
+
+/** The capture of this visit that is the same recording, on the same channel, with the same reference. */
+export async function findDuplicate(
+	k: Knex,
+	sessionId: number,
+	recording: { sha256: string; channel: number; sweepDefinitionId: number | null; referenceObjectKey: string | null }
+): Promise<CaptureRow | undefined> {
+	return base(k)
+		.where({ 'c.session_id': sessionId, 'c.sha256': recording.sha256, 'c.channel': recording.channel, 'c.reference_identity': referenceIdentity(recording) })
+		.first(columns);
+}
+
+/**
+ * Take the visit's row lock before changing its captures. Every transaction that adds or moves
+ * captures of a visit takes it first, so they run one after another instead of meeting in the
+ * middle (the capture insert's foreign-key check and the visit's notice reset deadlocked).
+ */
+export async function lockSessionForCaptures(trx: Knex.Transaction, sessionId: number): Promise<boolean> {
+	return Boolean(await trx('sessions').where({ id: sessionId }).forUpdate().first('id'));
 }
 
 /** Warnings and headline numbers of each capture's analysis, for lists. */

@@ -68,7 +68,8 @@ export async function createSession(
 
 /** A new capture means the visit is not finished: its "analysed" notice may go out again. */
 export async function clearAnalysedNotice(k: Knex, sessionId: number): Promise<void> {
-	await k('sessions').where({ id: sessionId }).update({ analysed_notice_at: null });
+	// Only when set: most announcements find it clear and need not write the visit's row.
+	await k('sessions').where({ id: sessionId }).whereNotNull('analysed_notice_at').update({ analysed_notice_at: null });
 }
 
 /**
@@ -79,14 +80,14 @@ export async function takeAnalysedNotice(
 	trx: Knex.Transaction,
 	sessionId: number
 ): Promise<{ conditionLabel: string; roomName: string; acousticianEmail: string | null } | undefined> {
+	// Lock the visit's row only (a locking read of the join would lock its room and user too).
+	const open = await trx('sessions').where({ id: sessionId }).whereNull('analysed_notice_at').forUpdate().first('id');
+	if (!open) return undefined;
 	const s = await trx('sessions as s')
 		.join('rooms as r', 'r.id', 's.room_id')
 		.leftJoin('users as u', 'u.id', 's.acoustician_id')
 		.where('s.id', sessionId)
-		.whereNull('s.analysed_notice_at')
-		.forUpdate()
 		.first('s.condition_label', 'r.name as room_name', 'u.email');
-	if (!s) return undefined;
 	await trx('sessions').where({ id: sessionId }).update({ analysed_notice_at: trx.raw('CURRENT_TIMESTAMP(3)') });
 	return { conditionLabel: s.condition_label, roomName: s.room_name, acousticianEmail: s.email ?? null };
 }
