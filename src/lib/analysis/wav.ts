@@ -50,8 +50,6 @@ interface WaveFileFmt {
 
 interface WaveFileInstance {
 	fmt: WaveFileFmt;
-	data: { samples: Uint8Array };
-	fromBuffer(bytes: Uint8Array, samples?: boolean): void;
 	fromScratch(channels: number, sampleRate: number, bitDepth: string, samples: ArrayLike<number> | ArrayLike<number>[]): void;
 	toBuffer(): Uint8Array;
 }
@@ -63,6 +61,8 @@ const wavefileExports = wavefileModule as unknown as { WaveFile?: WaveFileClass;
 const WaveFile: WaveFileClass = (wavefileExports.WaveFile ?? wavefileExports.default?.WaveFile) as WaveFileClass;
 
 interface ChunkLayout {
+	fmtOffset: number;
+	fmtBytes: number;
 	dataOffset: number;
 	dataBytes: number;
 }
@@ -71,7 +71,11 @@ function fourCC(bytes: Uint8Array, offset: number): string {
 	return String.fromCharCode(bytes[offset], bytes[offset + 1], bytes[offset + 2], bytes[offset + 3]);
 }
 
-/** Walks the RIFF chunks ourselves: wavefile accepts a data chunk longer than the file without a word. */
+/**
+ * Walks the RIFF chunks ourselves and reads only `fmt ` and `data`: wavefile accepts a data chunk
+ * longer than the file without a word, and parses every metadata chunk it knows (a `cue ` chunk
+ * with a corrupt point count makes it loop and allocate without end).
+ */
 function checkChunkLayout(bytes: Uint8Array): ChunkLayout {
 	if (bytes.length < 12) {
 		if (bytes.length >= 4 && fourCC(bytes, 0) === 'RIFF') {
@@ -84,18 +88,18 @@ function checkChunkLayout(bytes: Uint8Array): ChunkLayout {
 	}
 	const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 	let offset = 12;
-	let fmtFound = false;
-	let data: ChunkLayout | null = null;
-	while (offset + 8 <= bytes.length && !(fmtFound && data)) {
+	let fmt: { fmtOffset: number; fmtBytes: number } | null = null;
+	let data: { dataOffset: number; dataBytes: number } | null = null;
+	while (offset + 8 <= bytes.length && !(fmt && data)) {
 		const id = fourCC(bytes, offset);
 		const size = view.getUint32(offset + 4, true);
 		const body = offset + 8;
-		if (id === 'fmt ') {
+		if (id === 'fmt ' && !fmt) {
 			if (size < 16 || body + size > bytes.length) {
 				throw new AnalysisInputError('header_truncated', 'the WAV format chunk is cut short');
 			}
-			fmtFound = true;
-		} else if (id === 'data') {
+			fmt = { fmtOffset: body, fmtBytes: size };
+		} else if (id === 'data' && !data) {
 			if (body + size > bytes.length) {
 				throw new AnalysisInputError(
 					'data_truncated',
@@ -106,12 +110,29 @@ function checkChunkLayout(bytes: Uint8Array): ChunkLayout {
 		}
 		offset = body + size + (size % 2);
 	}
-	if (!fmtFound && !data && offset + 8 > bytes.length) {
+	if (!fmt && !data && offset + 8 > bytes.length) {
 		throw new AnalysisInputError('header_truncated', 'the WAV header is cut short: no format or data chunk');
 	}
-	if (!fmtFound) throw new AnalysisInputError('missing_chunk', 'the WAV file has no format ("fmt ") chunk');
+	if (!fmt) throw new AnalysisInputError('missing_chunk', 'the WAV file has no format ("fmt ") chunk');
 	if (!data) throw new AnalysisInputError('missing_chunk', 'the WAV file has no data chunk');
-	return data;
+	return { ...fmt, ...data };
+}
+
+/** The format chunk's fields (WAVEFORMATEX, and WAVEFORMATEXTENSIBLE's sub-format code). */
+function readFormat(bytes: Uint8Array, layout: ChunkLayout): WaveFileFmt {
+	const view = new DataView(bytes.buffer, bytes.byteOffset + layout.fmtOffset, layout.fmtBytes);
+	const fmt: WaveFileFmt = {
+		audioFormat: view.getUint16(0, true),
+		numChannels: view.getUint16(2, true),
+		sampleRate: view.getUint32(4, true),
+		blockAlign: view.getUint16(12, true),
+		bitsPerSample: view.getUint16(14, true)
+	};
+	if (fmt.audioFormat === WAVE_FORMAT_EXTENSIBLE) {
+		if (layout.fmtBytes < 40) throw new AnalysisInputError('unsupported_format', 'the WAV extensible format chunk is cut short');
+		fmt.subformat = [view.getUint32(24, true), view.getUint32(28, true), view.getUint32(32, true), view.getUint32(36, true)];
+	}
+	return fmt;
 }
 
 function sampleFormat(fmt: WaveFileFmt): 'pcm' | 'float' {
@@ -178,13 +199,7 @@ export function decodeWav(bytes: Uint8Array, options: DecodeWavOptions = {}): De
 	const maxDurationS = options.maxDurationS ?? DEFAULT_MAX_DURATION_S;
 	const layout = checkChunkLayout(bytes);
 
-	const wav = new WaveFile();
-	try {
-		wav.fromBuffer(bytes);
-	} catch (error) {
-		throw new AnalysisInputError('unsupported_format', `the WAV file cannot be read: ${(error as Error).message}`);
-	}
-	const fmt = wav.fmt;
+	const fmt = readFormat(bytes, layout);
 	const format = sampleFormat(fmt);
 	const bits = fmt.bitsPerSample;
 	checkBitDepth(format, bits);
@@ -204,6 +219,12 @@ export function decodeWav(bytes: Uint8Array, options: DecodeWavOptions = {}): De
 		);
 	}
 	const frameBytes = (bits / 8) * fmt.numChannels;
+	if (fmt.blockAlign !== frameBytes) {
+		throw new AnalysisInputError(
+			'unsupported_format',
+			`the WAV format chunk is inconsistent: a block of ${fmt.blockAlign} bytes for ${fmt.numChannels} channel${fmt.numChannels === 1 ? '' : 's'} of ${bits} bits`
+		);
+	}
 	const frames = Math.floor(layout.dataBytes / frameBytes);
 	if (frames === 0) throw new AnalysisInputError('no_samples', 'the WAV file contains no samples');
 	const durationS = frames / fmt.sampleRate;
@@ -211,7 +232,7 @@ export function decodeWav(bytes: Uint8Array, options: DecodeWavOptions = {}): De
 		throw new AnalysisInputError('too_long', `the recording lasts ${durationS.toFixed(1)} s: the limit is ${maxDurationS} s`);
 	}
 
-	const samples = readChannel(wav.data.samples, format, bits, fmt.numChannels, channel, frames);
+	const samples = readChannel(bytes.subarray(layout.dataOffset, layout.dataOffset + layout.dataBytes), format, bits, fmt.numChannels, channel, frames);
 	for (let i = 0; i < samples.length; i++) {
 		if (!Number.isFinite(samples[i])) {
 			throw new AnalysisInputError('non_finite_samples', `sample ${i} of channel ${channel} is not a finite number (NaN or infinity)`);
