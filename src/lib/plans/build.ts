@@ -2,6 +2,7 @@
 // units together laid out on the stock sheets, the weight of each unit and the cost.
 import { diffuserBuildSheet, membraneTrapBuildSheet, porousFrameBuildSheet, WELL_SHIM_PART, type BuildSheet, type ConstructionBoard } from '../treatment/buildsheet';
 import type { DiffuserConstruction } from '../treatment/diffuser-build';
+import { diffuserAssembly, type AssemblyStep } from '../treatment/assembly';
 import { sameThickness, type CutList, type StockSheet } from '../treatment/cutlist';
 import { cutPlan, type CutPlan, type SawLimit } from '../treatment/cut-plan';
 import { PANEL_STOCK } from '../treatment/membrane';
@@ -30,6 +31,8 @@ export interface ItemBuild {
 	/** Nominal thicknesses the stock measures otherwise, and the parts whose fit changes by more than the kerf. */
 	thickness: { nominalMm: number; measuredMm: number }[];
 	fitChanges: FitChange[];
+	/** A diffuser's assembly, step by step (treatment/assembly.ts). */
+	assembly: AssemblyStep[] | null;
 	/** A diffuser's board in both constructions: the chosen one and the other, per unit. */
 	constructions: { chosen: ConstructionFigures; other: ConstructionFigures; savingM2: number; savingPct: number } | null;
 }
@@ -143,7 +146,7 @@ export function itemBuild(item: PlanItem, workshop: Workshop = {}): ItemBuild {
 	const d = sheet.diffuser;
 	const figures = (b: ConstructionBoard): ConstructionFigures => ({ construction: b.construction, boardAreaM2: b.boardAreaM2, weightKg: b.volumeM3 * SHEET_DENSITY_KG_M3, pieces: b.pieces });
 	const constructions = d ? { chosen: figures(d.chosen), other: figures(d.other), savingM2: d.lowWasteSavingM2, savingPct: d.lowWasteSavingPct } : null;
-	return { itemId: item.id, label: item.label, quantity: item.quantity, sheet, unitWeightKg, heavy: unitWeightKg > HEAVY_UNIT_KG, thickness: differing, fitChanges: changes, constructions };
+	return { itemId: item.id, label: item.label, quantity: item.quantity, sheet, unitWeightKg, heavy: unitWeightKg > HEAVY_UNIT_KG, thickness: differing, fitChanges: changes, assembly: d ? diffuserAssembly(sheet) : null, constructions };
 }
 
 /** Build sheets of every item; an item whose sizes cannot be built is reported instead. */
