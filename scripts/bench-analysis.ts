@@ -8,7 +8,8 @@
  * a 10 s, 96 kHz recorded sweep analysed with its reference, written as 32-bit float WAV so both
  * sides read the same samples.
  *
- * 1. In-process, imports and file reading excluded on both sides: the first call in a fresh
+ * 1. In-process, imports and file reading excluded on both sides, in CPU time (so the load of a
+ *    shared machine counts less than in wall time): the first call in a fresh
  *    process (what a new worker or the command line pays) and the median of the next calls, each
  *    against SciPy's; the lower bound (one FFT of the file plus ten zero-phase band passes in
  *    numpy/scipy) beside it; the engine's peak memory beyond the decoded file, in bytes per sample.
@@ -123,29 +124,25 @@ async function writeInputs(directory: string): Promise<Case[]> {
 	];
 }
 
+/** CPU milliseconds (all threads of this process) of `work`. */
+function cpuMs(work: () => void): number {
+	const before = process.cpuUsage();
+	work();
+	const used = process.cpuUsage(before);
+	return (used.user + used.system) / 1000;
+}
+
 /** Child process: one fresh engine, timed on its first call and on the next ones. */
 async function engineChild(file: string, bands: 'octave' | 'third', reference: string | undefined): Promise<void> {
-	const { analyseRecording } = await import('../src/lib/analysis/analyse');
+	const { analyseDecodedRecording } = await import('../src/lib/analysis/analyse');
 	const { decodeWav } = await import('../src/lib/analysis/wav');
-	const bytes = readFileSync(file);
-	const played = reference ? decodeWav(readFileSync(reference)) : null;
-	const samples = decodeWav(bytes).samples.length;
-	const rssBefore = process.memoryUsage().rss;
 	// Decoding is left out of the time, as SciPy's file reading is.
-	const timed = (curves: boolean) => {
-		let decodeMs = 0;
-		const started = performance.now();
-		analyseRecording(bytes, {
-			bands,
-			curves,
-			reference: played?.samples,
-			referenceSampleRate: played?.sampleRate,
-			onStage: (stage, ms) => {
-				if (stage === 'decode') decodeMs = ms;
-			}
-		});
-		return performance.now() - started - decodeMs;
-	};
+	const decoded = decodeWav(readFileSync(file));
+	const played = reference ? decodeWav(readFileSync(reference)) : null;
+	const samples = decoded.samples.length;
+	const rssBefore = process.memoryUsage().rss;
+	const timed = (curves: boolean) =>
+		cpuMs(() => analyseDecodedRecording(decoded, { bands, curves, reference: played?.samples, referenceSampleRate: played?.sampleRate }));
 	const coldMs = timed(true);
 	const peakRss = process.resourceUsage().maxRSS * 1024;
 	const warm = Array.from({ length: WARM_RUNS }, () => timed(true));
@@ -212,7 +209,7 @@ async function main(argv: string[]): Promise<void> {
 		const m = (f: (pair: (typeof pairs)[number]) => number) => median(pairs.map(f));
 		console.log(`\n${c.label} (${pairs[0].engine.samples} samples)`);
 		console.log(
-			`  in-process, with curves: first ${m((p) => p.engine.coldMs).toFixed(0)} ms, then ${m((p) => p.engine.warmMs).toFixed(0)} ms;` +
+			`  in-process CPU, with curves: first ${m((p) => p.engine.coldMs).toFixed(0)} ms, then ${m((p) => p.engine.warmMs).toFixed(0)} ms;` +
 				` SciPy first ${m((p) => p.scipy.coldMs).toFixed(0)} ms, then ${m((p) => p.scipy.warmMs).toFixed(0)} ms`
 		);
 		console.log(

@@ -6,6 +6,7 @@ import type { DecayFit } from './decay-fit';
 import { completeLengthAt, deconvolveSweep } from './deconvolve';
 import { energyTimeCurveDb } from './envelope';
 import { AnalysisInputError } from './errors';
+import { extraOctaves } from './extra-octaves';
 import { createBandFilterBank } from './filters';
 import { findDirectSoundPeak, findImpulseStart } from './onset';
 import { REQUIRED_INR_DB } from './quality';
@@ -27,7 +28,7 @@ import type {
 	SmoothingKey
 } from './types';
 import { ENGINE_VERSION } from './version';
-import { decodeWav, MAX_SAMPLE_RATE, MIN_SAMPLE_RATE, type ClippingSummary } from './wav';
+import { decodeWav, MAX_SAMPLE_RATE, MIN_SAMPLE_RATE, type ClippingSummary, type DecodedWav } from './wav';
 
 /** Shortest impulse response analysed, from its start point. */
 const MIN_DECAY_S = 0.05;
@@ -252,7 +253,7 @@ function analyse(
 	const direct = findDirectSoundPeak(full, start, sampleRate);
 	const warnings = [...provenance.warnings];
 
-	const bank = createBandFilterBank(sampleRate, kind);
+	const bank = createBandFilterBank(sampleRate, kind, { extraBands: kind === 'octave' && options.extraOctaves ? extraOctaves(sampleRate, provenance.deconvolution) : [] });
 	const maxLead = Math.max(bank.span.padding, ...bank.filters.map((filter) => filter.padding));
 	// One scratch buffer serves every band; each band's results are kept, its signals dropped.
 	const scratch = new Float64Array(bank.scratchLength(samples.length, maxLead));
@@ -342,6 +343,15 @@ export function analyseImpulseResponse(samples: Float64Array, sampleRate: number
 export function analyseRecording(bytes: Uint8Array, options: RecordingAnalysisOptions = {}): AnalysisResult {
 	const clock = createStageClock(options.onStage);
 	const decoded = clock.time('decode', () => decodeWav(bytes, { channel: options.channel, maxDurationS: options.maxDurationS }));
+	return analyseDecodedRecording(decoded, options, clock);
+}
+
+/** analyseRecording of a file already decoded (its channel chosen). */
+export function analyseDecodedRecording(
+	decoded: DecodedWav,
+	options: RecordingAnalysisOptions = {},
+	clock = createStageClock(options.onStage)
+): AnalysisResult {
 	const warnings: AnalysisWarning[] = decoded.warnings.map((message) => ({ code: 'clipping', band: null, message }));
 	let impulseResponse = decoded.samples;
 	let deconvolution: DeconvolutionSummary | null = null;

@@ -1,6 +1,7 @@
 // Analytic signal and energy–time curve: the smooth envelope of an impulse response.
-import FFT from 'fft.js';
+import type FFT from 'fft.js';
 import { AnalysisInputError } from './errors';
+import { fftOfSize, releaseFft } from './fft';
 
 /** Level given to samples whose energy is zero, instead of −Infinity. */
 export const ENERGY_FLOOR_DB = -200;
@@ -35,7 +36,7 @@ export class AnalyticSignalPlan {
 		}
 		this.maxLength = maxLength;
 		this.fftSize = nextPowerOfTwo(maxLength);
-		this.fft = new FFT(this.fftSize);
+		this.fft = fftOfSize(this.fftSize);
 		this.padded = new Float64Array(this.fftSize);
 		this.spectrum = new Float64Array(2 * this.fftSize);
 		this.complexOut = new Float64Array(2 * this.fftSize);
@@ -65,6 +66,7 @@ export class AnalyticSignalPlan {
 		}
 		spectrum.fill(0, 2 * (half + 1));
 		this.fft.inverseTransform(this.complexOut, spectrum);
+		releaseFft(this.fft);
 		for (let i = 0; i < n; i++) {
 			re[i] = this.complexOut[2 * i];
 			im[i] = this.complexOut[2 * i + 1];

@@ -1,3 +1,7 @@
+/**
+ * The engine's one FFT module: fft.js instances cached by size with typed-array tables, the real
+ * FFT plan built on them, and cached real plans. Every transform of the engine goes through here.
+ */
 import FFT from 'fft.js';
 
 export function isPowerOfTwo(n: number): boolean {
@@ -13,11 +17,41 @@ export function fftSizeFor(n: number): number {
 }
 
 /**
+ * A cached fft.js instance of this size (fft.js 4: radix-4, complex `transform`/`inverseTransform`
+ * on interleaved arrays, `realTransform` filling bins 0…N/2). Its tables are built once per size
+ * and kept as typed arrays — the same values, so the same results, with faster reads. Calls are
+ * synchronous and the instance is left holding no array, so every caller can share it.
+ */
+export function fftOfSize(size: number): FFT {
+	let fft = kept.get(size);
+	if (!fft) {
+		fft = new FFT(size);
+		const internals = fft as unknown as { table: ArrayLike<number>; _bitrev: ArrayLike<number> };
+		internals.table = Float64Array.from(internals.table);
+		internals._bitrev = Int32Array.from(internals._bitrev);
+		// The largest are let go first, so big tables do not pile up in a long-lived worker.
+		if (kept.size >= MAX_KEPT_SIZES) kept.delete(Math.max(...kept.keys()));
+		kept.set(size, fft);
+	}
+	return fft;
+}
+
+/** Lets go of the arrays fft.js keeps a reference to after a transform. */
+export function releaseFft(fft: FFT): void {
+	const internals = fft as unknown as { _out: unknown; _data: unknown };
+	internals._out = null;
+	internals._data = null;
+}
+
+const kept = new Map<number, FFT>();
+const MAX_KEPT_SIZES = 8;
+
+/**
  * Real-input FFT of a power-of-two size N, computed with one complex FFT of size N/2 (the samples
  * taken as interleaved complex pairs) and a twiddle pass — the standard packing (Press et al.,
  * Numerical Recipes, "FFT of real functions"; from memory).
  * Spectra are half spectra: bins 0…N/2, interleaved (re, im), length N + 2. The inverse is scaled by 1/N.
- * The plan owns its tables and one scratch buffer: reuse it, but not from two callers at once.
+ * The plan owns its tables and scratch buffers: reuse it, but not from two callers at once.
  */
 export class RealFftPlan {
 	readonly size: number;
@@ -30,7 +64,7 @@ export class RealFftPlan {
 	constructor(size: number) {
 		if (!isPowerOfTwo(size) || size < 8) throw new RangeError(`real FFT size must be a power of two ≥ 8, got ${size}`);
 		this.size = size;
-		this.half = new FFT(size / 2);
+		this.half = fftOfSize(size / 2);
 		this.twiddle = new Float64Array(size);
 		for (let k = 0; k < size / 2; k++) {
 			const angle = (2 * Math.PI * k) / size;
@@ -55,6 +89,7 @@ export class RealFftPlan {
 		// Even samples as real parts, odd samples as imaginary parts: the input already is that array.
 		const z = this.transformed;
 		this.half.transform(z, source);
+		releaseFft(this.half);
 		const m = n / 2;
 		const tw = this.twiddle;
 		for (let k = 0; k <= m; k++) {
@@ -104,6 +139,20 @@ export class RealFftPlan {
 		}
 		const result = n === output.length ? output : this.transformed;
 		this.half.inverseTransform(result, z);
+		releaseFft(this.half);
 		if (result !== output) output.set(result);
 	}
+}
+
+const realPlans = new Map<number, RealFftPlan>();
+
+/** The cached real plan of this size (see RealFftPlan: one caller at a time, as everything here is synchronous). */
+export function realFftPlan(size: number): RealFftPlan {
+	let plan = realPlans.get(size);
+	if (!plan) {
+		plan = new RealFftPlan(size);
+		if (realPlans.size >= MAX_KEPT_SIZES) realPlans.delete(Math.max(...realPlans.keys()));
+		realPlans.set(size, plan);
+	}
+	return plan;
 }

@@ -1,7 +1,8 @@
 // Frequency response of an impulse response, fractional-octave smoothing, and a log-spaced
 // decimation of the curve for charts.
-import FFT from 'fft.js';
+import type FFT from 'fft.js';
 import { AnalysisInputError } from './errors';
+import { fftOfSize, releaseFft } from './fft';
 
 export const SMOOTHING_FRACTIONS = [1, 3, 6, 12, 24] as const;
 export type SmoothingFraction = (typeof SMOOTHING_FRACTIONS)[number];
@@ -45,7 +46,7 @@ export class PowerSpectrumPlan {
 		}
 		this.fftSize = fftSize;
 		this.binCount = fftSize / 2 + 1;
-		this.fft = new FFT(fftSize);
+		this.fft = fftOfSize(fftSize);
 		this.padded = new Float64Array(fftSize);
 		this.spectrum = new Float64Array(2 * fftSize);
 	}
@@ -64,6 +65,7 @@ export class PowerSpectrumPlan {
 		this.padded.fill(0);
 		this.padded.set(x);
 		this.fft.realTransform(this.spectrum, this.padded); // fills bins 0…N/2
+		releaseFft(this.fft);
 		for (let k = 0; k < binCount; k++) {
 			const re = this.spectrum[2 * k];
 			const im = this.spectrum[2 * k + 1];
