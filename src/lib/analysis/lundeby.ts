@@ -52,24 +52,71 @@ interface Intervals {
 	levelsDb: Float64Array;
 }
 
+/**
+ * Sums of the squared signal over any range from one pass over it: the sums of blocks of
+ * BLOCK samples, plus the samples of the partial blocks at the range's ends. Every term is ≥ 0,
+ * so the sums carry no cancellation; they differ from a running sum only by round-off.
+ */
+const BLOCK = 64;
+
+class RangeSums {
+	private readonly blockSums: Float64Array;
+	/** Largest value, and one past the last value > 0 (0 if none). */
+	readonly peakPower: number;
+	readonly lastNonZero: number;
+
+	constructor(private readonly squared: Float64Array) {
+		const blocks = Math.ceil(squared.length / BLOCK);
+		this.blockSums = new Float64Array(blocks);
+		let peak = 0;
+		let last = 0;
+		for (let b = 0; b < blocks; b++) {
+			let sum = 0;
+			const end = Math.min(squared.length, (b + 1) * BLOCK);
+			for (let i = b * BLOCK; i < end; i++) {
+				const value = squared[i];
+				sum += value;
+				if (value > peak) peak = value;
+				if (value > 0) last = i + 1;
+			}
+			this.blockSums[b] = sum;
+		}
+		this.peakPower = peak;
+		this.lastNonZero = last;
+	}
+
+	/** Σ squared[from…to). */
+	sum(from: number, to: number): number {
+		const squared = this.squared;
+		const firstFull = Math.ceil(from / BLOCK);
+		const lastFull = Math.floor(to / BLOCK);
+		let sum = 0;
+		if (firstFull >= lastFull) {
+			for (let i = from; i < to; i++) sum += squared[i];
+			return sum;
+		}
+		for (let i = from; i < firstFull * BLOCK; i++) sum += squared[i];
+		for (let b = firstFull; b < lastFull; b++) sum += this.blockSums[b];
+		for (let i = lastFull * BLOCK; i < to; i++) sum += squared[i];
+		return sum;
+	}
+}
+
 /** Steps 1 and 6: mean square in consecutive intervals, in dB, stamped at each interval's centre. */
-function averageIntervals(squared: Float64Array, length: number, sampleRate: number): Intervals {
-	const count = Math.floor(squared.length / length);
+function averageIntervals(sums: RangeSums, n: number, length: number, sampleRate: number): Intervals {
+	const count = Math.floor(n / length);
 	const timesS = new Float64Array(count);
 	const levelsDb = new Float64Array(count);
 	for (let j = 0; j < count; j++) {
-		let sum = 0;
-		for (let i = j * length; i < (j + 1) * length; i++) sum += squared[i];
+		const sum = sums.sum(j * length, (j + 1) * length);
 		timesS[j] = (j * length + length / 2) / sampleRate;
 		levelsDb[j] = 10 * Math.log10(Math.max(sum / length, TINY_POWER));
 	}
 	return { timesS, levelsDb };
 }
 
-function meanFrom(squared: Float64Array, start: number): number {
-	let sum = 0;
-	for (let i = start; i < squared.length; i++) sum += squared[i];
-	return sum / (squared.length - start);
+function meanFrom(sums: RangeSums, n: number, start: number): number {
+	return sums.sum(start, n) / (n - start);
 }
 
 function fitLine(intervals: Intervals, first: number, end: number): Line | null {
@@ -118,18 +165,15 @@ export function estimateNoiseFloor(squared: Float64Array, sampleRate: number, op
 	const n = squared.length;
 	if (n < 16) throw new RangeError(`need at least 16 samples to find the noise floor, got ${n}`);
 	const durationS = n / sampleRate;
-	let peakPower = 0;
-	let lastNonZero = 0;
-	for (let i = 0; i < n; i++) {
-		if (squared[i] > peakPower) peakPower = squared[i];
-		if (squared[i] > 0) lastNonZero = i + 1;
-	}
+	// One pass over the signal finds its peak and last sound and serves every mean below.
+	const sums = new RangeSums(squared);
+	const { peakPower, lastNonZero } = sums;
 	if (!(peakPower > 0)) throw new RangeError('the signal is silent');
 	const latestNoiseStart = Math.floor((1 - MIN_NOISE_FRACTION) * n);
 	const floorPower = peakPower * 1e-30;
 
 	// Step 2: first noise estimate from the last 10 % of the record.
-	let noisePower = Math.max(meanFrom(squared, latestNoiseStart), floorPower);
+	let noisePower = Math.max(meanFrom(sums, n, latestNoiseStart), floorPower);
 	const failed = (): NoiseFloorEstimate => ({
 		peakPower,
 		noisePower,
@@ -144,7 +188,7 @@ export function estimateNoiseFloor(squared: Float64Array, sampleRate: number, op
 
 	// Steps 1, 3: coarse intervals, a line from the peak to where the level nears the noise.
 	const initialLength = Math.max(1, Math.round((options.initialIntervalS ?? DEFAULT_INITIAL_INTERVAL_S) * sampleRate));
-	let intervals = averageIntervals(squared, Math.min(initialLength, Math.floor(n / 4)), sampleRate);
+	let intervals = averageIntervals(sums, n, Math.min(initialLength, Math.floor(n / 4)), sampleRate);
 	let peakInterval = argMax(intervals.levelsDb);
 	let noiseDb = 10 * Math.log10(noisePower);
 	const firstFitEnd = firstAtOrBelow(intervals.levelsDb, peakInterval + 1, noiseDb + FIRST_FIT_MARGIN_DB);
@@ -157,7 +201,7 @@ export function estimateNoiseFloor(squared: Float64Array, sampleRate: number, op
 	// Steps 5, 6: new interval length giving a few intervals per 10 dB of decay.
 	const lengthFromSlope = Math.round((10 / -line.slopeDbPerS / INTERVALS_PER_10_DB) * sampleRate);
 	const intervalLength = Math.max(1, Math.min(lengthFromSlope, Math.floor(n / 8)));
-	intervals = averageIntervals(squared, intervalLength, sampleRate);
+	intervals = averageIntervals(sums, n, intervalLength, sampleRate);
 	peakInterval = argMax(intervals.levelsDb);
 
 	// Steps 7–10: noise past the crosspoint, late decay line, new crosspoint, until it settles.
@@ -169,7 +213,7 @@ export function estimateNoiseFloor(squared: Float64Array, sampleRate: number, op
 		iterations++;
 		const noiseStartS = crosspointS + NOISE_START_PAST_CROSSPOINT_DB / -line.slopeDbPerS;
 		noiseStart = Math.min(latestNoiseStart, Math.round(noiseStartS * sampleRate));
-		noisePower = Math.max(meanFrom(squared, noiseStart), floorPower);
+		noisePower = Math.max(meanFrom(sums, n, noiseStart), floorPower);
 		noiseDb = 10 * Math.log10(noisePower);
 
 		const bottomDb = noiseDb + LATE_FIT_MARGIN_DB;
