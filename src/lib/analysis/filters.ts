@@ -247,9 +247,12 @@ export interface BandFilterBank {
  * magnitude, so each pass is designed on widened edges and the combined response meets the class 1
  * mask with −3.01 dB at the exact edges.
  */
-export function createBandFilterBank(sampleRate: number, kind: BandKind): BandFilterBank {
+export function createBandFilterBank(sampleRate: number, kind: BandKind, options: { extraBands?: readonly Band[] } = {}): BandFilterBank {
 	if (!(sampleRate > 0)) throw new RangeError(`sample rate must be positive, got ${sampleRate}`);
-	const filters = analysisBands(kind).map((band): BandFilter => {
+	const standard = analysisBands(kind);
+	// Extra bands (octaves beyond the standard range) get filters of their own but stay out of the span,
+	// so the broadband values are the same with or without them.
+	const filters = [...standard, ...(options.extraBands ?? [])].sort((a, b) => a.exactHz - b.exactHz).map((band): BandFilter => {
 		const edges = zeroPhasePassEdges(band.lowerHz, band.upperHz, sampleRate, BAND_FILTER_ORDER);
 		if (edges.highHz >= sampleRate / 2) throw new RangeError(`the ${band.nominalHz} Hz band does not fit below half of ${sampleRate} Hz`);
 		const bandwidthHz = band.upperHz - band.lowerHz;
@@ -262,8 +265,8 @@ export function createBandFilterBank(sampleRate: number, kind: BandKind): BandFi
 		};
 	});
 
-	const lowest = filters[0].band;
-	const highest = filters[filters.length - 1].band;
+	const lowest = standard[0];
+	const highest = standard[standard.length - 1];
 	const spanEdges = zeroPhasePassEdges(lowest.lowerHz, highest.upperHz, sampleRate, BAND_FILTER_ORDER);
 	if (spanEdges.highHz >= sampleRate / 2) throw new RangeError(`the bands' span does not fit below half of ${sampleRate} Hz`);
 	const span: BandFilter = {

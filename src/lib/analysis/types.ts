@@ -15,6 +15,8 @@ export interface AnalysisOptions {
 	room?: RoomBox & { source?: Point3; mic?: Point3 };
 	/** Lowest reflection level reported, dB re the direct sound (default −20). */
 	reflectionThresholdDb?: number;
+	/** With octave bands, also the 31.5 Hz and 16 kHz octaves where the record allows them (extra-octaves.ts); default false. */
+	extraOctaves?: boolean;
 	/**
 	 * Chart curves (frequency responses, decay curves, ETC, waterfall): default true. With false
 	 * they are left out, and `curves` holds empty ones — for callers that only want the figures.

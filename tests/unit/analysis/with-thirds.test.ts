@@ -11,8 +11,9 @@ describe('analyseRecordingWithThirds: octaves and one-third octaves of one recor
 	const bytes = fixture('stereo-t0.3-t0.6-48k.wav');
 	const both = analyseRecordingWithThirds(bytes, { channel: 1 });
 
-	it('keeps the octave result as the octave analysis gives it', () => {
-		const octaves = analyseRecording(bytes, { channel: 1, bands: 'octave' });
+	it('keeps the octave result, extra octaves included, as the octave analysis gives it', () => {
+		const octaves = analyseRecording(bytes, { channel: 1, bands: 'octave', extraOctaves: true });
+		expect(octaves.bands.map((b) => b.centerHz)).toEqual([31.5, 63, 125, 250, 500, 1000, 2000, 4000, 8000, 16000]);
 		expect(both.bandKind).toBe('octave');
 		expect(both.bands).toEqual(octaves.bands);
 		expect(both.broadband).toEqual(octaves.broadband);
