@@ -2,6 +2,7 @@
 // calibrated to its measured baseline, the predicted T per band by each formula with the one to
 // read, the target, and — once the room has been measured again — predicted against measured.
 import { formatHz } from '../format';
+import { MID_FREQUENCY_BANDS_HZ } from '../results/reverberation';
 import type { TargetBand } from '../analysis/targets';
 import { DEFAULT_AIR, type AtmosphereConditions } from '../treatment/air';
 import { PLANNING_BANDS_HZ } from '../treatment/bands';
@@ -14,8 +15,8 @@ import { DEFAULT_FINISH, type MaterialCatalogue, type MaterialKey, type StoredPl
 
 export const FORMULAS: readonly ReverbFormula[] = ['sabine', 'eyring', 'millington'];
 
-/** The bands the formula is chosen on (ISO 3382-1 single-number mid bands). */
-export const MID_BANDS_HZ = [500, 1000] as const;
+/** The bands the formula is chosen on: the mid-frequency bands of T_mid, defined once in results/reverberation. */
+export const MID_BANDS_HZ = MID_FREQUENCY_BANDS_HZ;
 
 export interface PlanInput {
 	room: RoomDimensions;
