@@ -2,7 +2,8 @@
 // frequency, its problem bands, and its target.
 import { roomModes, schroederFrequency } from '../analysis/room';
 import { formatHz } from '../format';
-import { bs1116Target, type TargetBand } from '../analysis/targets';
+import type { TargetBand } from '../analysis/targets';
+import { defaultTarget } from '../results/comparison';
 import type { ModeMarker } from '../charts/response-data';
 import type { ProblemBandView } from '../results/types';
 import type { FrequencyProblemBand } from '../components/charts/ResponseChart.svelte';
@@ -29,9 +30,7 @@ export function problemBandMarks(bands: ProblemBandView[]): FrequencyProblemBand
 	return bands.map((b) => ({ id: b.id, fLoHz: b.fLoHz, fHiHz: b.fHiHz, severity: b.severity, label: `${b.note}${b.status === 'addressed' ? ' (addressed)' : ''}` }));
 }
 
-const LISTENING_USES = new Set(['listening', 'control', 'home-theatre']);
-
-/** The target shown for a room: ITU-R BS.1116-3 for rooms used for critical listening. */
+/** The target shown for a room: the comparison's default (ITU-R BS.1116-3 for rooms used for critical listening, 63 Hz – 8 kHz). */
 export function roomTarget(room: RoomDims, centersHz: number[]): TargetBand[] {
-	return LISTENING_USES.has(room.roomUse) ? bs1116Target(room.volumeM3, centersHz) : [];
+	return defaultTarget(room, centersHz);
 }

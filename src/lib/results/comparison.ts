@@ -17,8 +17,12 @@ function labelsOf(summary: SessionSummary): Set<string> {
 	return new Set(summary.positions.map((p) => p.positionLabel));
 }
 
-export function defaultTarget(room: RoomFacts, centersHz: readonly number[]): TargetBand[] {
-	return LISTENING_USES.includes(room.roomUse) && centersHz.length > 0 ? bs1116Target(room.volumeM3, centersHz) : [];
+/** Octaves the BS.1116-3 tolerance mask is drawn over, 63 Hz – 8 kHz (from memory): the 31.5 Hz and 16 kHz octaves get no target. */
+const TARGET_RANGE_HZ = { low: 63, high: 8000 };
+
+export function defaultTarget(room: Pick<RoomFacts, 'roomUse' | 'volumeM3'>, centersHz: readonly number[]): TargetBand[] {
+	const inRange = centersHz.filter((c) => c >= TARGET_RANGE_HZ.low / 1.01 && c <= TARGET_RANGE_HZ.high * 1.01);
+	return LISTENING_USES.includes(room.roomUse) && inRange.length > 0 ? bs1116Target(room.volumeM3, inRange) : [];
 }
 
 /** The matched positions' one-third-octave bands compared, when both visits have them. */
