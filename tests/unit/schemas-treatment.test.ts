@@ -86,7 +86,7 @@ describe('item form', () => {
 	it('a diffuser: numbers in mm, width 0 (the design fixes it), no depth limit when empty', () => {
 		const r = itemFormSchema('mm').parse(diffuser);
 		expect(r.widthMm).toBe(0);
-		expect(r.params).toEqual({ kind: 'diffuser', sequence: 'quadratic-residue', prime: 7, designFrequencyHz: 500, wellWidthMm: 50, finThicknessMm: 6, maxDepthMm: null, boardThicknessMm: 18, construction: 'full-depth' });
+		expect(r.params).toEqual({ kind: 'diffuser', sequence: 'quadratic-residue', prime: 7, designFrequencyHz: 500, wellWidthMm: 50, finThicknessMm: 6, maxDepthMm: null, boardThicknessMm: 18, construction: 'full-depth', mounting: { method: 'none', notes: '' }, fit: null });
 		expect(r.surface).toBe('back');
 		expect(r.unitPrice).toBeNull();
 		expect(r.why).toBeNull();
@@ -153,7 +153,29 @@ describe('item form', () => {
 		expect(diffuserParamsSchema.parse(ok).construction).toBe('full-depth');
 		expect(diffuserParamsSchema.parse({ ...ok, construction: 'low-waste' }).construction).toBe('low-waste');
 		expect(diffuserParamsSchema.safeParse({ ...ok, construction: 'solid' }).success).toBe(false);
+		// … and as not fixed and not fitted into an opening.
+		expect(diffuserParamsSchema.parse(ok)).toMatchObject({ mounting: { method: 'none', notes: '' }, fit: null });
 		expect(messages(diffuserParamsSchema.safeParse({ ...ok, prime: 9 }))).toEqual(['The number of wells must be a prime.']);
+	});
+
+	it('mounting and the fit into an opening: all four sides or none, in the form\'s unit', () => {
+		const withFit = { ...diffuser, mountingMethod: 'french-cleat', mountingNotes: '4 × 5 × 60 screws', fitWidthTopMm: '1000', fitWidthBottomMm: '1010', fitHeightLeftMm: '1500', fitHeightRightMm: '1490' };
+		expect(itemFormSchema('mm').parse(withFit).params).toMatchObject({
+			mounting: { method: 'french-cleat', notes: '4 × 5 × 60 screws' },
+			fit: { widthTopMm: 1000, widthBottomMm: 1010, heightLeftMm: 1500, heightRightMm: 1490, diagonalMm: null, clearanceMm: 3 }
+		});
+		// In inches: 39 3/8 in = 1000.125 mm (1 in = 25.4 mm exactly).
+		expect(itemFormSchema('in').parse({ ...withFit, heightMm: '47 1/4', wellWidthMm: '2', finThicknessMm: '1/4', boardThicknessMm: '3/4', fitWidthTopMm: '39 3/8', fitWidthBottomMm: '39 3/4', fitHeightLeftMm: '59', fitHeightRightMm: '58 5/8', fitClearanceMm: '1/8' }).params.fit).toEqual({
+			widthTopMm: expect.closeTo(1000.125, 9),
+			widthBottomMm: expect.closeTo(1009.65, 9),
+			heightLeftMm: expect.closeTo(1498.6, 9),
+			heightRightMm: expect.closeTo(1489.075, 9),
+			diagonalMm: null,
+			clearanceMm: expect.closeTo(3.175, 9)
+		});
+		const partial = itemFormSchema('mm').safeParse({ ...withFit, fitHeightRightMm: '' });
+		expect(messages(partial)).toEqual(['Give all four sides of the opening (widths at top and bottom, heights at left and right), or none.']);
+		expect(itemFormSchema('mm').safeParse({ ...withFit, mountingMethod: 'nails' }).success).toBe(false);
 	});
 });
 

@@ -3,6 +3,8 @@
 import { diffuserBuildSheet, membraneTrapBuildSheet, porousFrameBuildSheet, WELL_SHIM_PART, type BuildSheet, type ConstructionBoard } from '../treatment/buildsheet';
 import type { DiffuserConstruction } from '../treatment/diffuser-build';
 import { diffuserAssembly, type AssemblyStep } from '../treatment/assembly';
+import { mountingPlan, type MountingPlan } from '../treatment/mounting';
+import { mergeIdenticalParts } from '../treatment/parts';
 import { sameThickness, type CutList, type StockSheet } from '../treatment/cutlist';
 import { cutPlan, type CutPlan, type SawLimit } from '../treatment/cut-plan';
 import { PANEL_STOCK } from '../treatment/membrane';
@@ -31,6 +33,10 @@ export interface ItemBuild {
 	/** Nominal thicknesses the stock measures otherwise, and the parts whose fit changes by more than the kerf. */
 	thickness: { nominalMm: number; measuredMm: number }[];
 	fitChanges: FitChange[];
+	/** How the unit is fixed so it can come down again; null when not fixed by this plan. */
+	mounting: MountingPlan | null;
+	/** The item's own words on screws and plugs (free text). */
+	mountingNotes: string;
 	/** A diffuser's assembly, step by step (treatment/assembly.ts). */
 	assembly: AssemblyStep[] | null;
 	/** A diffuser's board in both constructions: the chosen one and the other, per unit. */
@@ -137,16 +143,32 @@ export interface Workshop {
 	kerfMm?: number;
 }
 
+/** Board the mounting pieces are cut from: the item's board or frame, at the measured thickness. */
+function mountingBoardMm(item: PlanItem, thickness: ThicknessOf): number {
+	const p = item.params;
+	return thickness(p.kind === 'diffuser' ? p.boardThicknessMm : p.frameThicknessMm);
+}
+
+/** The unit's parts with its mounting pieces, and the mounting plan. */
+function withMounting(item: PlanItem, sheet: BuildSheet, thickness: ThicknessOf): { sheet: BuildSheet; mounting: MountingPlan | null } {
+	const method = item.params.mounting?.method ?? 'none';
+	if (method === 'none') return { sheet, mounting: null };
+	const g = sheet.diffuser?.geometry;
+	const deepest = g && g.construction === 'low-waste' ? g.wells.filter((w) => g.overallDepthMm - g.boardMm - w.depthMm <= 1e-6).map((w) => w.xMm) : undefined;
+	const mounting = mountingPlan(method, { widthMm: sheet.overallMm.widthMm, heightMm: sheet.overallMm.heightMm, boardMm: mountingBoardMm(item, thickness), anchorXsMm: deepest });
+	return { sheet: { ...sheet, parts: mergeIdenticalParts([...sheet.parts, ...mounting.parts]) }, mounting };
+}
+
 export function itemBuild(item: PlanItem, workshop: Workshop = {}): ItemBuild {
 	const measured = measuredThicknessOf(workshop.stock ?? []);
-	const sheet = itemBuildSheet(item, measured);
+	const { sheet, mounting } = withMounting(item, itemBuildSheet(item, measured), measured);
 	const differing = [...new Set(thicknessesOf(item))].map((nominalMm) => ({ nominalMm, measuredMm: measured(nominalMm) })).filter((t) => t.measuredMm !== t.nominalMm);
-	const changes = differing.length ? fitChanges(itemBuildSheet(item), sheet, workshop.kerfMm ?? 3) : [];
+	const changes = differing.length ? fitChanges(withMounting(item, itemBuildSheet(item), asTyped).sheet, sheet, workshop.kerfMm ?? 3) : [];
 	const unitWeightKg = partsWeightKg(item, sheet.parts);
 	const d = sheet.diffuser;
 	const figures = (b: ConstructionBoard): ConstructionFigures => ({ construction: b.construction, boardAreaM2: b.boardAreaM2, weightKg: b.volumeM3 * SHEET_DENSITY_KG_M3, pieces: b.pieces });
 	const constructions = d ? { chosen: figures(d.chosen), other: figures(d.other), savingM2: d.lowWasteSavingM2, savingPct: d.lowWasteSavingPct } : null;
-	return { itemId: item.id, label: item.label, quantity: item.quantity, sheet, unitWeightKg, heavy: unitWeightKg > HEAVY_UNIT_KG, thickness: differing, fitChanges: changes, assembly: d ? diffuserAssembly(sheet) : null, constructions };
+	return { itemId: item.id, label: item.label, quantity: item.quantity, sheet, unitWeightKg, heavy: unitWeightKg > HEAVY_UNIT_KG, mounting, mountingNotes: item.params.mounting?.notes ?? '', thickness: differing, fitChanges: changes, assembly: d ? diffuserAssembly(sheet) : null, constructions };
 }
 
 /** Build sheets of every item; an item whose sizes cannot be built is reported instead. */

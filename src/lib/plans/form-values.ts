@@ -18,7 +18,15 @@ export function itemFormValues(item: ItemDraft, unit: LengthUnit): FormValues {
 		heightMm: len(item.heightMm),
 		unitPrice: item.unitPrice === null ? '' : String(item.unitPrice),
 		problemBandId: item.problemBandId === null ? '' : String(item.problemBandId),
-		why: item.why ?? ''
+		why: item.why ?? '',
+		mountingMethod: item.params.mounting?.method ?? 'none',
+		mountingNotes: item.params.mounting?.notes ?? '',
+		fitWidthTopMm: item.params.fit ? len(item.params.fit.widthTopMm) : '',
+		fitWidthBottomMm: item.params.fit ? len(item.params.fit.widthBottomMm) : '',
+		fitHeightLeftMm: item.params.fit ? len(item.params.fit.heightLeftMm) : '',
+		fitHeightRightMm: item.params.fit ? len(item.params.fit.heightRightMm) : '',
+		fitDiagonalMm: item.params.fit?.diagonalMm ? len(item.params.fit.diagonalMm) : '',
+		fitClearanceMm: item.params.fit ? len(item.params.fit.clearanceMm) : ''
 	};
 	const p = item.params;
 	switch (p.kind) {
@@ -69,7 +77,7 @@ export const NEW_ITEM: Record<ItemKind, ItemDraft> = {
 		unitPrice: null,
 		problemBandId: null,
 		why: null,
-		params: { kind: 'porous', thicknessMm: 100, airGapMm: 0, flowResistivity: 15_000, presetId: 'rock-wool-40', model: 'miki', frameThicknessMm: 18, fabricWrapped: true, withBack: false }
+		params: { kind: 'porous', thicknessMm: 100, airGapMm: 0, flowResistivity: 15_000, presetId: 'rock-wool-40', model: 'miki', frameThicknessMm: 18, fabricWrapped: true, withBack: false, mounting: { method: 'none', notes: '' }, fit: null }
 	},
 	membrane: {
 		label: 'Panel trap',
@@ -80,7 +88,7 @@ export const NEW_ITEM: Record<ItemKind, ItemDraft> = {
 		unitPrice: null,
 		problemBandId: null,
 		why: null,
-		params: { kind: 'membrane', panelThicknessMm: 6, panelStockId: 'plywood', cavityDepthMm: 150, cavityFill: 'porous', frameThicknessMm: 18 }
+		params: { kind: 'membrane', panelThicknessMm: 6, panelStockId: 'plywood', cavityDepthMm: 150, cavityFill: 'porous', frameThicknessMm: 18, mounting: { method: 'none', notes: '' }, fit: null }
 	},
 	diffuser: {
 		label: 'Rear diffuser',
@@ -91,6 +99,6 @@ export const NEW_ITEM: Record<ItemKind, ItemDraft> = {
 		unitPrice: null,
 		problemBandId: null,
 		why: null,
-		params: { kind: 'diffuser', sequence: 'quadratic-residue', prime: 7, designFrequencyHz: 500, wellWidthMm: 50, finThicknessMm: 6, maxDepthMm: null, boardThicknessMm: 18, construction: 'low-waste' }
+		params: { kind: 'diffuser', sequence: 'quadratic-residue', prime: 7, designFrequencyHz: 500, wellWidthMm: 50, finThicknessMm: 6, maxDepthMm: null, boardThicknessMm: 18, construction: 'low-waste', mounting: { method: 'none', notes: '' }, fit: null }
 	}
 };

@@ -22,6 +22,9 @@ const STARTING_POINT: Record<Proposal['kind'], { quantity: number; widthMm: numb
 export const DRAFT_FRAME_MM = 18;
 export const DRAFT_BOARD_MM = 18;
 
+/** Drafts start without mounting or a fit into an opening; the consultant adds them. */
+const NOT_FIXED = { mounting: { method: 'none' as const, notes: '' }, fit: null };
+
 export function draftFromProposal(proposal: Proposal, problemBandId: number | null): ItemDraft {
 	const start = STARTING_POINT[proposal.kind];
 	const base = { quantity: start.quantity, widthMm: start.widthMm, heightMm: start.heightMm, surface: start.surface, unitPrice: null, problemBandId, why: proposal.why };
@@ -39,7 +42,8 @@ export function draftFromProposal(proposal: Proposal, problemBandId: number | nu
 					model: proposal.layer.model,
 					frameThicknessMm: DRAFT_FRAME_MM,
 					fabricWrapped: true,
-					withBack: proposal.layer.airGapM > 0
+					withBack: proposal.layer.airGapM > 0,
+					...NOT_FIXED
 				}
 			};
 		case 'membrane-trap':
@@ -52,7 +56,8 @@ export function draftFromProposal(proposal: Proposal, problemBandId: number | nu
 					panelStockId: 'plywood',
 					cavityDepthMm: Math.round(proposal.trap.cavityDepthM * 1000),
 					cavityFill: proposal.trap.cavityFill,
-					frameThicknessMm: DRAFT_FRAME_MM
+					frameThicknessMm: DRAFT_FRAME_MM,
+					...NOT_FIXED
 				}
 			};
 		case 'diffuser':
@@ -71,7 +76,8 @@ export function draftFromProposal(proposal: Proposal, problemBandId: number | nu
 					maxDepthMm: proposal.diffuser.designFrequencyHz > proposal.diffuser.requestedDesignFrequencyHz ? Math.floor(proposal.diffuser.deepestWellM * 10000) / 10 : null,
 					boardThicknessMm: DRAFT_BOARD_MM,
 					// Parts sized to their wells: the same wells from less board (treatment/diffuser-build.ts).
-					construction: 'low-waste'
+					construction: 'low-waste',
+					...NOT_FIXED
 				}
 			};
 	}

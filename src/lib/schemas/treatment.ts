@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { TABLE_BANDS_HZ } from '../treatment/bands';
 import { isPrime } from '../treatment/diffuser';
 import { DIFFUSER_CONSTRUCTIONS, type DiffuserConstruction } from '../treatment/diffuser-build';
+import { MOUNTING_METHODS, type MountingMethod } from '../treatment/mounting';
 import { MATERIALS } from '../treatment/materials';
 import { PANEL_STOCK } from '../treatment/membrane';
 import { POROUS_PRESETS } from '../treatment/porous';
@@ -42,6 +43,8 @@ export const LIMITS = {
 	sheetSideMm: { min: 100, max: 5000 },
 	sheetThicknessMm: { min: 2, max: 50 },
 	kerfMm: { min: 0, max: 10 },
+	openingFitMm: { min: 100, max: 5000 },
+	fitClearanceMm: { min: 0, max: 50 },
 	price: { max: 1_000_000 }
 } as const;
 
@@ -69,6 +72,15 @@ export function lengthField(label: string, bare: BareUnit, limits: { min: number
 			error: `The ${label} must lie between ${formatLength(limits.min, display)} and ${formatLength(limits.max, display)}.`
 		})
 		.transform((mm) => Math.min(Math.max(mm, limits.min), limits.max));
+}
+
+/** A length field that may stay empty (null). */
+function optionalLength(label: string, bare: BareUnit, limits: { min: number; max: number }) {
+	return z
+		.string()
+		.optional()
+		.transform((v) => (v && v.trim() ? v : null))
+		.pipe(z.union([z.null(), lengthField(label, bare, limits)]));
 }
 
 /** A blank field is missing, not 0 (coercion alone would read "" as 0). */
@@ -107,6 +119,30 @@ const surfaceOrNone = z
 const label = z.string({ error: 'Give it a name.' }).trim().min(1, { error: 'Give it a name.' }).max(120, { error: 'Keep the name under 120 characters.' });
 
 // Stored item parameters (millimetres, Pa·s/m²): checked when written and when read back.
+
+/** How a unit is fixed so it can come down again; screws and adhesive stay free text. */
+export const mountingSchema = z.object({
+	method: z.enum(MOUNTING_METHODS as [MountingMethod, ...MountingMethod[]]).default('none'),
+	notes: z.string().max(500).default('')
+});
+
+/**
+ * An out-of-square recess the unit is fitted into: widths at top and bottom, heights at left and
+ * right, optionally the diagonal from bottom left to top right (else the bottom is taken level
+ * and the left side plumb), and the clearance to leave all round. Millimetres.
+ */
+export const openingFitSchema = z.object({
+	widthTopMm: z.number().min(LIMITS.openingFitMm.min).max(LIMITS.openingFitMm.max),
+	widthBottomMm: z.number().min(LIMITS.openingFitMm.min).max(LIMITS.openingFitMm.max),
+	heightLeftMm: z.number().min(LIMITS.openingFitMm.min).max(LIMITS.openingFitMm.max),
+	heightRightMm: z.number().min(LIMITS.openingFitMm.min).max(LIMITS.openingFitMm.max),
+	diagonalMm: z.number().min(LIMITS.openingFitMm.min).max(2 * LIMITS.openingFitMm.max).nullable().default(null),
+	clearanceMm: z.number().min(LIMITS.fitClearanceMm.min).max(LIMITS.fitClearanceMm.max).default(3)
+});
+
+// Added later than the kind's own fields: rows written before read as not fixed and not fitted.
+const mountingField = mountingSchema.default({ method: 'none', notes: '' });
+const fitField = openingFitSchema.nullable().default(null);
 export const porousParamsSchema = z.object({
 	kind: z.literal('porous'),
 	thicknessMm: z.number().min(LIMITS.porousThicknessMm.min).max(LIMITS.porousThicknessMm.max),
@@ -116,7 +152,9 @@ export const porousParamsSchema = z.object({
 	model: z.enum(POROUS_MODELS).default('miki'),
 	frameThicknessMm: z.number().min(LIMITS.frameThicknessMm.min).max(LIMITS.frameThicknessMm.max),
 	fabricWrapped: z.boolean(),
-	withBack: z.boolean()
+	withBack: z.boolean(),
+	mounting: mountingField,
+	fit: fitField
 });
 export const membraneParamsSchema = z.object({
 	kind: z.literal('membrane'),
@@ -124,7 +162,9 @@ export const membraneParamsSchema = z.object({
 	panelStockId: z.enum(PANEL_STOCK.map((s) => s.id) as [string, ...string[]]),
 	cavityDepthMm: z.number().min(LIMITS.cavityDepthMm.min).max(LIMITS.cavityDepthMm.max),
 	cavityFill: z.enum(['empty', 'porous']),
-	frameThicknessMm: z.number().min(LIMITS.frameThicknessMm.min).max(LIMITS.frameThicknessMm.max)
+	frameThicknessMm: z.number().min(LIMITS.frameThicknessMm.min).max(LIMITS.frameThicknessMm.max),
+	mounting: mountingField,
+	fit: fitField
 });
 export const diffuserParamsSchema = z.object({
 	kind: z.literal('diffuser'),
@@ -136,7 +176,9 @@ export const diffuserParamsSchema = z.object({
 	maxDepthMm: z.number().min(LIMITS.maxDepthMm.min).max(LIMITS.maxDepthMm.max).nullable(),
 	boardThicknessMm: z.number().min(LIMITS.boardThicknessMm.min).max(LIMITS.boardThicknessMm.max),
 	// Added later: rows written before it are the full-depth box they were built as.
-	construction: z.enum(DIFFUSER_CONSTRUCTIONS as [DiffuserConstruction, ...DiffuserConstruction[]]).default('full-depth')
+	construction: z.enum(DIFFUSER_CONSTRUCTIONS as [DiffuserConstruction, ...DiffuserConstruction[]]).default('full-depth'),
+	mounting: mountingField,
+	fit: fitField
 });
 export const itemParamsSchema = z.discriminatedUnion('kind', [porousParamsSchema, membraneParamsSchema, diffuserParamsSchema]);
 
@@ -158,7 +200,15 @@ export function itemFormSchema(unit: LengthUnit) {
 			.trim()
 			.max(2000, { error: 'Keep the reason under 2000 characters.' })
 			.optional()
-			.transform((v) => (v ? v : null))
+			.transform((v) => (v ? v : null)),
+		mountingMethod: z.enum(MOUNTING_METHODS as [MountingMethod, ...MountingMethod[]], { error: 'Pick how the unit is fixed.' }).optional().default('none'),
+		mountingNotes: z.string().trim().max(500, { error: 'Keep the fixing notes under 500 characters.' }).optional().default(''),
+		fitWidthTopMm: optionalLength('width of the opening at the top', bare, LIMITS.openingFitMm),
+		fitWidthBottomMm: optionalLength('width of the opening at the bottom', bare, LIMITS.openingFitMm),
+		fitHeightLeftMm: optionalLength('height of the opening at the left', bare, LIMITS.openingFitMm),
+		fitHeightRightMm: optionalLength('height of the opening at the right', bare, LIMITS.openingFitMm),
+		fitDiagonalMm: optionalLength('diagonal of the opening', bare, { min: LIMITS.openingFitMm.min, max: 2 * LIMITS.openingFitMm.max }),
+		fitClearanceMm: optionalLength('clearance', bare, LIMITS.fitClearanceMm)
 	};
 	const porous = z.object({
 		...common,
@@ -213,9 +263,20 @@ export function itemFormSchema(unit: LengthUnit) {
 		boardThicknessMm: lengthField('board thickness', bare, LIMITS.boardThicknessMm),
 		construction: z.enum(DIFFUSER_CONSTRUCTIONS as [DiffuserConstruction, ...DiffuserConstruction[]], { error: 'Pick how the diffuser is built.' }).optional().default('full-depth')
 	});
-	return z.discriminatedUnion('kind', [porous, membrane, diffuser], { error: 'Pick what kind of treatment this is.' }).transform((v) => {
+	return z.discriminatedUnion('kind', [porous, membrane, diffuser], { error: 'Pick what kind of treatment this is.' }).transform((v, ctx) => {
 		const { label: name, surface, quantity, heightMm, unitPrice, problemBandId, why } = v;
 		const base = { label: name, surface, quantity, heightMm, unitPrice, problemBandId, why };
+		const mounting = { method: v.mountingMethod, notes: v.mountingNotes };
+		const sides = [v.fitWidthTopMm, v.fitWidthBottomMm, v.fitHeightLeftMm, v.fitHeightRightMm];
+		if (sides.some((x) => x !== null) && sides.some((x) => x === null)) {
+			ctx.addIssue({ code: 'custom', path: ['fitWidthTopMm'], message: 'Give all four sides of the opening (widths at top and bottom, heights at left and right), or none.' });
+			return z.NEVER;
+		}
+		const fit =
+			v.fitWidthTopMm !== null && v.fitWidthBottomMm !== null && v.fitHeightLeftMm !== null && v.fitHeightRightMm !== null
+				? { widthTopMm: v.fitWidthTopMm, widthBottomMm: v.fitWidthBottomMm, heightLeftMm: v.fitHeightLeftMm, heightRightMm: v.fitHeightRightMm, diagonalMm: v.fitDiagonalMm, clearanceMm: v.fitClearanceMm ?? 3 }
+				: null;
+		const fitting = { mounting, fit };
 		if (v.kind === 'porous') {
 			const preset = POROUS_PRESETS.find((p) => p.id === v.preset);
 			return {
@@ -231,7 +292,8 @@ export function itemFormSchema(unit: LengthUnit) {
 					model: v.model,
 					frameThicknessMm: v.frameThicknessMm,
 					fabricWrapped: v.fabricWrapped,
-					withBack: v.withBack
+					withBack: v.withBack,
+					...fitting
 				}
 			};
 		}
@@ -245,7 +307,8 @@ export function itemFormSchema(unit: LengthUnit) {
 					panelStockId: v.panelStockId,
 					cavityDepthMm: v.cavityDepthMm,
 					cavityFill: v.cavityFill,
-					frameThicknessMm: v.frameThicknessMm
+					frameThicknessMm: v.frameThicknessMm,
+					...fitting
 				}
 			};
 		}
@@ -262,7 +325,8 @@ export function itemFormSchema(unit: LengthUnit) {
 				finThicknessMm: v.finThicknessMm,
 				maxDepthMm: v.maxDepthMm,
 				boardThicknessMm: v.boardThicknessMm,
-				construction: v.construction
+				construction: v.construction,
+				...fitting
 			}
 		};
 	});

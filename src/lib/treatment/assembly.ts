@@ -44,11 +44,34 @@ const letter = (i: number) => String.fromCharCode(65 + i);
 /** Wells per sub-assembly: two, so each one is still easy to hold square on the bench. */
 export const WELLS_PER_SUBASSEMBLY = 2;
 
-/** Steps to assemble one diffuser unit of the build sheet's construction. */
+/** Pieces of a unit's removable mounting (treatment/mounting.ts), fitted last. */
+const MOUNTING_PARTS = ['panel cleat', 'wall cleat', 'bottom spacer', 'mounting block'];
+
+/** Steps to assemble one diffuser unit of the build sheet's construction, then its mounting. */
 export function diffuserAssembly(sheet: BuildSheet): AssemblyStep[] {
 	const g = sheet.diffuser?.geometry;
 	if (!g) throw new Error('assembly steps are drawn for diffusers only');
-	return g.construction === 'low-waste' ? lowWasteSteps(sheet, g) : fullDepthSteps(sheet, g);
+	const steps = g.construction === 'low-waste' ? lowWasteSteps(sheet, g) : fullDepthSteps(sheet, g);
+	const mounting = sheet.parts.filter((p) => MOUNTING_PARTS.includes(p.name));
+	if (mounting.length) {
+		const pieces: AssemblyPiece[] = [];
+		for (const part of mounting) {
+			for (let k = 0; k < part.quantity; k++) {
+				// The wall cleat and the blocks go on the wall; the panel's pieces onto the finished unit.
+				const onWall = part.name === 'wall cleat' || part.name === 'mounting block';
+				pieces.push({ id: `M${pieces.length + 1}`, part, restsOn: onWall ? [] : ['K1', 'K2'] });
+			}
+		}
+		steps.push({
+			n: steps.length + 1,
+			title: 'Mounting pieces',
+			pieces,
+			joins: [],
+			faceOut: 'Mounting pieces are hidden behind the panel.',
+			joints: 'Screw, do not glue, wherever the panel must come off the wall again.'
+		});
+	}
+	return steps;
 }
 
 function finPart(sheet: BuildSheet, g: DiffuserGeometry, i: number): Part {

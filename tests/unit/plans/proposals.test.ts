@@ -45,7 +45,7 @@ describe.each(BANDS)('proposals for the $name band', ({ name, band, kinds }) => 
 describe('drafts in detail', () => {
 	it('the boom trap: 6 mm plywood over 276 mm of fibre-filled cavity, f0 ≈ 51 Hz (√(36·72) = 50.9 Hz)', () => {
 		const trap = proposalsForBand(BANDS[0].band).proposals[0].draft;
-		expect(trap.params).toEqual({ kind: 'membrane', panelThicknessMm: 6, panelStockId: 'plywood', cavityDepthMm: 276, cavityFill: 'porous', frameThicknessMm: 18 });
+		expect(trap.params).toEqual({ kind: 'membrane', panelThicknessMm: 6, panelStockId: 'plywood', cavityDepthMm: 276, cavityFill: 'porous', frameThicknessMm: 18, mounting: { method: 'none', notes: '' }, fit: null });
 		expect(trap.label).toBe('Panel trap 50.9 Hz');
 		const range = paramsAcoustics(trap.params).actionRangeHz!;
 		expect(Math.sqrt(range.loHz * range.hiHz)).toBeCloseTo(Math.sqrt(36 * 72), 0);
