@@ -42,3 +42,11 @@ export function toWinAnsi(text: string): string {
 	}
 	return out;
 }
+
+/**
+ * Whether a standard font shows `char` as itself, or a symbol by its look-alike. A letter it
+ * lacks (Δ in a Greek name) is not shown: it is better set in a face that has it.
+ */
+export function standardFontShows(char: string): boolean {
+	return isWinAnsi(char.codePointAt(0) as number) || (char in LOOK_ALIKES && !/\p{L}/u.test(char));
+}
