@@ -1,6 +1,6 @@
 // One analysis for the stored results: a recording's octaves (with the 31.5 Hz and 16 kHz octaves
 // where it allows them) together with its one-third octaves.
-import { analyseRecording } from './analyse';
+import { analyseRecordingInOctavesAndThirds } from './analyse';
 import type { AnalysisResult, RecordingAnalysisOptions } from './types';
 
 /**
@@ -10,7 +10,7 @@ import type { AnalysisResult, RecordingAnalysisOptions } from './types';
  * pass carries the warnings and curves).
  */
 export function analyseRecordingWithThirds(bytes: Uint8Array, options: Omit<RecordingAnalysisOptions, 'bands'> = {}): AnalysisResult {
-	const octaves = analyseRecording(bytes, { ...options, bands: 'octave', extraOctaves: true });
-	const thirds = analyseRecording(bytes, { ...options, bands: 'third' });
+	// One decoding and deconvolution serve both passes; the thirds skip the curves they would drop.
+	const { octaves, thirds } = analyseRecordingInOctavesAndThirds(bytes, options, { extraOctaves: true });
 	return { ...octaves, thirdOctaveBands: thirds.bands };
 }
