@@ -4,6 +4,7 @@ import { diffuserBuildSheet, membraneTrapBuildSheet, porousFrameBuildSheet, WELL
 import type { DiffuserConstruction } from '../treatment/diffuser-build';
 import { diffuserAssembly, type AssemblyStep } from '../treatment/assembly';
 import { mountingPlan, type MountingPlan } from '../treatment/mounting';
+import { fitOpening, type OpeningFit } from '../treatment/opening-fit';
 import { mergeIdenticalParts } from '../treatment/parts';
 import { sameThickness, type CutList, type StockSheet } from '../treatment/cutlist';
 import { cutPlan, type CutPlan, type SawLimit } from '../treatment/cut-plan';
@@ -35,6 +36,8 @@ export interface ItemBuild {
 	fitChanges: FitChange[];
 	/** How the unit is fixed so it can come down again; null when not fixed by this plan. */
 	mounting: MountingPlan | null;
+	/** Fitting each unit into an out-of-square opening, when the item gives one. */
+	fit: OpeningFit | null;
 	/** The item's own words on screws and plugs (free text). */
 	mountingNotes: string;
 	/** A diffuser's assembly, step by step (treatment/assembly.ts). */
@@ -168,7 +171,7 @@ export function itemBuild(item: PlanItem, workshop: Workshop = {}): ItemBuild {
 	const d = sheet.diffuser;
 	const figures = (b: ConstructionBoard): ConstructionFigures => ({ construction: b.construction, boardAreaM2: b.boardAreaM2, weightKg: b.volumeM3 * SHEET_DENSITY_KG_M3, pieces: b.pieces });
 	const constructions = d ? { chosen: figures(d.chosen), other: figures(d.other), savingM2: d.lowWasteSavingM2, savingPct: d.lowWasteSavingPct } : null;
-	return { itemId: item.id, label: item.label, quantity: item.quantity, sheet, unitWeightKg, heavy: unitWeightKg > HEAVY_UNIT_KG, mounting, mountingNotes: item.params.mounting?.notes ?? '', thickness: differing, fitChanges: changes, assembly: d ? diffuserAssembly(sheet) : null, constructions };
+	return { itemId: item.id, label: item.label, quantity: item.quantity, sheet, unitWeightKg, heavy: unitWeightKg > HEAVY_UNIT_KG, mounting, mountingNotes: item.params.mounting?.notes ?? '', fit: item.params.fit ? fitOpening(item.params.fit, { widthMm: sheet.overallMm.widthMm, heightMm: sheet.overallMm.heightMm }) : null, thickness: differing, fitChanges: changes, assembly: d ? diffuserAssembly(sheet) : null, constructions };
 }
 
 /** Build sheets of every item; an item whose sizes cannot be built is reported instead. */

@@ -128,7 +128,10 @@ function checkBuildable(item: ItemInput): void {
 	try {
 		itemBuild({ ...item, id: 0 });
 	} catch (e) {
-		throw invalid(`This item cannot be built as sized: ${(e as Error).message}.`, 'widthMm');
+		const message = (e as Error).message;
+		// A fit into an opening or a mounting that cannot be worked out is refused beside its own fields.
+		const field = /opening|clearance/.test(message) ? 'fitWidthTopMm' : /mounting|cleat/.test(message) ? 'mountingMethod' : 'widthMm';
+		throw invalid(`This item cannot be built as sized: ${message}.`, field);
 	}
 }
 
