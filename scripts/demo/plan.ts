@@ -39,7 +39,7 @@ export const DEMO_ITEMS: DemoItem[] = [
 		unitPrice: 24,
 		band: 'boom',
 		why: trap.why,
-		params: { kind: 'membrane', panelThicknessMm: trap.trap.panelThicknessMm, panelStockId: 'plywood', cavityDepthMm: Math.round(trap.trap.cavityDepthM * 1000), cavityFill: 'porous', frameThicknessMm: 18 }
+		params: { kind: 'membrane', panelThicknessMm: trap.trap.panelThicknessMm, panelStockId: 'plywood', cavityDepthMm: Math.round(trap.trap.cavityDepthM * 1000), cavityFill: 'porous', frameThicknessMm: 18, mounting: { method: 'french-cleat' as const, notes: 'Two screws per stud, 400 mm centres.' }, fit: null }
 	},
 	{
 		label: 'Left-wall absorbers',
@@ -50,7 +50,7 @@ export const DEMO_ITEMS: DemoItem[] = [
 		unitPrice: 41,
 		band: 'low-mid',
 		why: 'Thick fibre with an air gap reaches down into the low mids and kills the flutter at the first-reflection points.',
-		params: { kind: 'porous', thicknessMm: 100, airGapMm: 50, flowResistivity: 15_000, presetId: 'rock-wool-40', model: 'miki', frameThicknessMm: 18, fabricWrapped: true, withBack: false }
+		params: { kind: 'porous', thicknessMm: 100, airGapMm: 50, flowResistivity: 15_000, presetId: 'rock-wool-40', model: 'miki', frameThicknessMm: 18, fabricWrapped: true, withBack: false, mounting: { method: 'none' as const, notes: 'Z-clips, bought.' }, fit: null }
 	},
 	{
 		label: 'Right-wall absorbers',
@@ -61,7 +61,7 @@ export const DEMO_ITEMS: DemoItem[] = [
 		unitPrice: 41,
 		band: 'flutter',
 		why: 'Opposite the left-wall panels, so no bare pair of parallel walls is left.',
-		params: { kind: 'porous', thicknessMm: 100, airGapMm: 50, flowResistivity: 15_000, presetId: 'rock-wool-40', model: 'miki', frameThicknessMm: 18, fabricWrapped: true, withBack: false }
+		params: { kind: 'porous', thicknessMm: 100, airGapMm: 50, flowResistivity: 15_000, presetId: 'rock-wool-40', model: 'miki', frameThicknessMm: 18, fabricWrapped: true, withBack: false, mounting: { method: 'none' as const, notes: 'Z-clips, bought.' }, fit: null }
 	},
 	{
 		label: 'Ceiling cloud',
@@ -72,7 +72,7 @@ export const DEMO_ITEMS: DemoItem[] = [
 		unitPrice: 46,
 		band: 'low-mid',
 		why: 'Hung 200 mm below the ceiling over the listening seat: the gap carries the absorption down an octave.',
-		params: { kind: 'porous', thicknessMm: 100, airGapMm: 200, flowResistivity: 15_000, presetId: 'rock-wool-40', model: 'miki', frameThicknessMm: 18, fabricWrapped: true, withBack: false }
+		params: { kind: 'porous', thicknessMm: 100, airGapMm: 200, flowResistivity: 15_000, presetId: 'rock-wool-40', model: 'miki', frameThicknessMm: 18, fabricWrapped: true, withBack: false, mounting: { method: 'none' as const, notes: 'Z-clips, bought.' }, fit: null }
 	},
 	{
 		label: 'Rear diffuser',
@@ -83,14 +83,14 @@ export const DEMO_ITEMS: DemoItem[] = [
 		unitPrice: 12,
 		band: 'flutter',
 		why: 'Keeps the back of the room lively without a slap back to the seat: quadratic-residue wells, 500 Hz up to the well-width limit.',
-		params: { kind: 'diffuser', sequence: 'quadratic-residue', prime: 7, designFrequencyHz: 500, wellWidthMm: 50, finThicknessMm: 6, maxDepthMm: null, boardThicknessMm: 18 }
+		params: { kind: 'diffuser', sequence: 'quadratic-residue', prime: 7, designFrequencyHz: 500, wellWidthMm: 50, finThicknessMm: 6, maxDepthMm: null, boardThicknessMm: 18, construction: 'full-depth', mounting: { method: 'french-cleat' as const, notes: 'Two screws per stud, 400 mm centres.' }, fit: null }
 	}
 ];
 
 export const DEMO_STOCK: Omit<StockSheetRow, 'id'>[] = [
-	{ label: 'Birch ply 18 B/BB', lengthMm: 2440, widthMm: 1220, thicknessMm: 18, finishedFaces: 1, grain: 'along-length', price: 96 },
-	{ label: 'Poplar ply 18 utility', lengthMm: 2440, widthMm: 1220, thicknessMm: 18, finishedFaces: 0, grain: 'along-length', price: 58 },
-	{ label: 'Birch ply 6 B/B', lengthMm: 2440, widthMm: 1220, thicknessMm: 6, finishedFaces: 2, grain: 'along-length', price: 44 }
+	{ label: 'Birch ply 18 B/BB', lengthMm: 2440, widthMm: 1220, thicknessMm: 18, finishedFaces: 1, grain: 'along-length', price: 96, nominalThicknessMm: null },
+	{ label: 'Poplar ply 18 utility', lengthMm: 2440, widthMm: 1220, thicknessMm: 18, finishedFaces: 0, grain: 'along-length', price: 58, nominalThicknessMm: null },
+	{ label: 'Birch ply 6 B/B', lengthMm: 2440, widthMm: 1220, thicknessMm: 6, finishedFaces: 2, grain: 'along-length', price: 44, nominalThicknessMm: null }
 ];
 
 export const DEMO_FINISHES = {
@@ -120,7 +120,7 @@ const INSTALLED_DEVIATION = [0.18, 0.07, -0.04, 0.03, 0, -0.04, -0.06, -0.08];
 export function demoStoredPlan(): StoredPlan {
 	return {
 		id: null,
-		settings: { baselineSessionId: null, afterSessionId: null, temperatureC: 20, relativeHumidityPct: 45, kerfMm: 3, currency: 'EUR', notes: DEMO_PLAN_NOTES, includeInReport: true },
+		settings: { baselineSessionId: null, afterSessionId: null, temperatureC: 20, relativeHumidityPct: 45, kerfMm: 3, currency: 'EUR', notes: DEMO_PLAN_NOTES, includeInReport: true, sawMaxLengthMm: null, sawMaxWidthMm: null },
 		finishes: { ...DEMO_FINISHES },
 		openings: DEMO_OPENINGS.map((o, i) => ({ id: i + 1, ...o })),
 		items: DEMO_ITEMS.map(({ band, ...item }, i) => ({ ...item, id: i + 1, problemBandId: null })),

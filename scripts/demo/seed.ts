@@ -2,7 +2,7 @@
 import type { Knex } from 'knex';
 import { hashPassword } from '../../src/lib/server/auth/password';
 import { DEMO_ORGANIZATION, DEMO_PASSWORD, DEMO_PROJECTS, DEMO_USERS } from './scenario';
-import { seedDemoPlan } from './seed-plan';
+import { seedDemoImperialPlan, seedDemoPlan } from './seed-plan';
 
 export interface SeedResult {
 	created: boolean;
@@ -68,6 +68,10 @@ export async function seedDemo(k: Knex): Promise<SeedResult> {
 		const [lindqvist] = await trx('rooms as r').join('projects as p', 'p.id', 'r.project_id').where({ 'p.organization_id': organizationId, 'p.name': DEMO_PROJECTS[0].name }).select('r.id');
 		const sessions = await trx('sessions').where({ room_id: lindqvist.id }).orderBy('measured_on').select('id');
 		await seedDemoPlan(trx, { roomId: lindqvist.id, consultantId: userIds.get('consultant@fenwick-hale.test')!, baselineSessionId: sessions[0].id, afterSessionId: sessions[1].id });
+		// The second client's basement is planned in inches, built from 4 × 8 ft sheets.
+		const [okafor] = await trx('rooms as r').join('projects as p', 'p.id', 'r.project_id').where({ 'p.organization_id': organizationId, 'p.name': DEMO_PROJECTS[1].name }).select('r.id');
+		const okaforSessions = await trx('sessions').where({ room_id: okafor.id }).orderBy('measured_on').select('id');
+		await seedDemoImperialPlan(trx, { roomId: okafor.id, consultantId: userIds.get('consultant@fenwick-hale.test')!, baselineSessionId: okaforSessions[0].id });
 		return { created: true, organizationId };
 	});
 }

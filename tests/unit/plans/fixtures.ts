@@ -67,11 +67,13 @@ export const POROUS: PorousParams = {
 	model: 'miki',
 	frameThicknessMm: 18,
 	fabricWrapped: true,
-	withBack: false
+	withBack: false,
+	mounting: { method: 'none', notes: '' },
+	fit: null
 };
 
 /** 6 mm plywood over a 276 mm fibre-filled cavity (the planner's trap for 36–72 Hz). */
-export const MEMBRANE: MembraneParams = { kind: 'membrane', panelThicknessMm: 6, panelStockId: 'plywood', cavityDepthMm: 276, cavityFill: 'porous', frameThicknessMm: 18 };
+export const MEMBRANE: MembraneParams = { kind: 'membrane', panelThicknessMm: 6, panelStockId: 'plywood', cavityDepthMm: 276, cavityFill: 'porous', frameThicknessMm: 18, mounting: { method: 'none', notes: '' }, fit: null };
 
 /** A QRD worked from its design formulas (Schroeder, JASA 65:958, 1979; D'Antonio & Konnert, JAES 32:228, 1984): N = 7, f0 = 500 Hz, 50 mm wells, 6 mm fins; 18 mm board. */
 export const QRD7: DiffuserParams = {
@@ -82,7 +84,10 @@ export const QRD7: DiffuserParams = {
 	wellWidthMm: 50,
 	finThicknessMm: 6,
 	maxDepthMm: null,
-	boardThicknessMm: 18
+	boardThicknessMm: 18,
+	construction: 'full-depth',
+	mounting: { method: 'none', notes: '' },
+	fit: null
 };
 
 let nextId = 1;
@@ -101,9 +106,9 @@ export function item(over: Partial<PlanItem> & Pick<PlanItem, 'params'>): PlanIt
 	};
 }
 
-export const STOCK_18_ONE_FACE: StockSheetRow = { id: 1, label: 'Birch ply 18 B/BB', lengthMm: 2440, widthMm: 1220, thicknessMm: 18, finishedFaces: 1, grain: 'along-length', price: 96 };
-export const STOCK_18_UTILITY: StockSheetRow = { id: 2, label: 'Poplar ply 18 utility', lengthMm: 2440, widthMm: 1220, thicknessMm: 18, finishedFaces: 0, grain: 'along-length', price: 58 };
-export const STOCK_6_TWO_FACES: StockSheetRow = { id: 3, label: 'Birch ply 6 B/B', lengthMm: 2440, widthMm: 1220, thicknessMm: 6, finishedFaces: 2, grain: 'along-length', price: 44 };
+export const STOCK_18_ONE_FACE: StockSheetRow = { id: 1, label: 'Birch ply 18 B/BB', lengthMm: 2440, widthMm: 1220, thicknessMm: 18, finishedFaces: 1, grain: 'along-length', price: 96, nominalThicknessMm: null };
+export const STOCK_18_UTILITY: StockSheetRow = { id: 2, label: 'Poplar ply 18 utility', lengthMm: 2440, widthMm: 1220, thicknessMm: 18, finishedFaces: 0, grain: 'along-length', price: 58, nominalThicknessMm: null };
+export const STOCK_6_TWO_FACES: StockSheetRow = { id: 3, label: 'Birch ply 6 B/B', lengthMm: 2440, widthMm: 1220, thicknessMm: 6, finishedFaces: 2, grain: 'along-length', price: 44, nominalThicknessMm: null };
 export const STOCK = [STOCK_18_ONE_FACE, STOCK_18_UTILITY, STOCK_6_TWO_FACES];
 
 /**

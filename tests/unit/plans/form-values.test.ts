@@ -35,8 +35,16 @@ function expectRoundTrip(draft: ItemDraft, unit: 'mm' | 'in') {
 	const p = draft.params as unknown as Record<string, unknown>;
 	const q = back.params as unknown as Record<string, unknown>;
 	for (const key of LENGTH_KEYS[draft.params.kind]) expect(Math.abs((q[key] as number) - (p[key] as number)), key).toBeLessThanOrEqual(tol);
+	// The fit into an opening holds lengths too: each within the unit's tolerance.
+	const fit = p.fit as Record<string, number | null> | null;
+	if (fit === null) expect(q.fit).toBeNull();
+	else for (const [key, value] of Object.entries(fit)) {
+		const got = (q.fit as Record<string, number | null>)[key];
+		if (value === null) expect(got, key).toBeNull();
+		else expect(Math.abs((got as number) - value), key).toBeLessThanOrEqual(tol);
+	}
 	for (const [key, value] of Object.entries(p)) {
-		if (LENGTH_KEYS[draft.params.kind].includes(key) || key === 'maxDepthMm') continue;
+		if (LENGTH_KEYS[draft.params.kind].includes(key) || key === 'maxDepthMm' || key === 'fit') continue;
 		if (typeof value === 'number') expect(q[key] as number, key).toBeCloseTo(value, 9);
 		else expect(q[key], key).toEqual(value);
 	}
@@ -64,8 +72,8 @@ describe('form values → item form schema gives the item back', () => {
 
 	const edited: ItemDraft[] = [
 		{ ...NEW_ITEM.porous, surface: null, quantity: 7, widthMm: 595.5, heightMm: 1187.3, unitPrice: 41.5, problemBandId: 12, why: 'Kills the flutter, "mostly"', params: { ...(NEW_ITEM.porous.params as Extract<ItemParams, { kind: 'porous' }>), presetId: null, flowResistivity: 12_500, airGapMm: 47.5, withBack: true, fabricWrapped: false } },
-		{ ...NEW_ITEM.membrane, params: { kind: 'membrane', panelThicknessMm: 9, panelStockId: 'mdf', cavityDepthMm: 212.4, cavityFill: 'empty', frameThicknessMm: 19 } },
-		{ ...NEW_ITEM.diffuser, params: { kind: 'diffuser', sequence: 'primitive-root', prime: 11, designFrequencyHz: 650, wellWidthMm: 42.5, finThicknessMm: 5.5, maxDepthMm: 180, boardThicknessMm: 12 } }
+		{ ...NEW_ITEM.membrane, params: { kind: 'membrane', panelThicknessMm: 9, panelStockId: 'mdf', cavityDepthMm: 212.4, cavityFill: 'empty', frameThicknessMm: 19, mounting: { method: 'french-cleat', notes: 'two screws per stud' }, fit: null } },
+		{ ...NEW_ITEM.diffuser, params: { kind: 'diffuser', sequence: 'primitive-root', prime: 11, designFrequencyHz: 650, wellWidthMm: 42.5, finThicknessMm: 5.5, maxDepthMm: 180, boardThicknessMm: 12, construction: 'low-waste', mounting: { method: 'screwed-blocks', notes: '' }, fit: { widthTopMm: 600, widthBottomMm: 604.8, heightLeftMm: 1250, heightRightMm: 1244.6, diagonalMm: null, clearanceMm: 3.2 } } }
 	];
 	it.each(edited.flatMap((d) => [[d.params.kind, 'mm', d] as const, [d.params.kind, 'in', d] as const]))('an edited %s item, %s', (_kind, unit, draft) => {
 		expectRoundTrip(draft, unit);
