@@ -1,5 +1,6 @@
 // See https://svelte.dev/docs/kit/types#app.d.ts
 import type { Membership, SessionUser } from '$lib/server/auth/access';
+import type { SessionToken } from '$lib/server/auth/session-user';
 
 declare global {
 	namespace App {
@@ -12,6 +13,8 @@ declare global {
 		interface Locals {
 			user: SessionUser | null;
 			memberships: Membership[];
+			/** The session of the signed-in user (null when signed out), to end it. */
+			session: SessionToken | null;
 		}
 	}
 }

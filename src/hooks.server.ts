@@ -1,7 +1,8 @@
 import { error, json, redirect, type Handle, type HandleServerError, type RequestEvent, type ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
-import { authHandle } from '$lib/server/auth/authjs';
-import { loadSessionUser } from '$lib/server/auth/session-user';
+import { authHandle, clearSessionCookies, sessionTokenOf } from '$lib/server/auth/authjs';
+import { prepareStandInHash } from '$lib/server/auth/password';
+import { userOfSession } from '$lib/server/auth/session-user';
 import { bodyLimitFor, limitBody } from '$lib/server/body-limit';
 import { config } from '$lib/server/config';
 import { storageOrigin, withSources } from '$lib/server/content-security';
@@ -18,6 +19,7 @@ const RETRY_AFTER_S = '10';
 export const init: ServerInit = async () => {
 	// Close the pool on shutdown, or the server takes ~30 s to exit.
 	process.once('sveltekit:shutdown', () => void closeDb());
+	prepareStandInHash();
 };
 
 /** A dependency (the database, object storage) is down, as opposed to a fault of ours. */
@@ -87,14 +89,15 @@ const closeDirectAuthPosts: Handle = async ({ event, resolve }) => {
 const loadUser: Handle = async ({ event, resolve }) => {
 	event.locals.user = null;
 	event.locals.memberships = [];
+	event.locals.session = null;
 	// /health reports each dependency itself, for anyone, signed in or not.
 	if (event.url.pathname === '/health') return resolve(event);
-	const session = await event.locals.auth();
-	const id = Number(session?.user?.id);
-	if (Number.isInteger(id) && id > 0) {
+	const token = sessionTokenOf(await event.locals.auth());
+	if (token) {
 		let loaded;
 		try {
-			loaded = await loadSessionUser(db(), id);
+			// Checked on every request, on every server: a session that was ended is refused at once.
+			loaded = await userOfSession(db(), token);
 		} catch (e) {
 			// Not "signed out": the person is signed in, the database is just not answering.
 			if (isOutage(e)) error(503, { message: UNAVAILABLE, code: 'unavailable' });
@@ -103,6 +106,9 @@ const loadUser: Handle = async ({ event, resolve }) => {
 		if (loaded) {
 			event.locals.user = loaded.user;
 			event.locals.memberships = loaded.memberships;
+			event.locals.session = token;
+		} else {
+			clearSessionCookies(event.cookies);
 		}
 	}
 	return resolve(event);

@@ -27,3 +27,12 @@ export function formatMsRange(loMs: number | null, hiMs: number | null): string 
 	if (loMs === null) return `up to ${formatMs(hiMs)} ms`;
 	return `${formatMs(loMs)}–${formatMs(hiMs)} ms`;
 }
+
+/** A wait for people, rounded up to whole minutes (at least one): "1 minute", "15 minutes", "2 hours 5 minutes". */
+export function formatWait(ms: number): string {
+	const minutes = Math.max(1, Math.ceil(ms / 60_000));
+	const plural = (n: number, unit: string) => `${n} ${unit}${n === 1 ? '' : 's'}`;
+	if (minutes < 60) return plural(minutes, 'minute');
+	const h = Math.floor(minutes / 60), m = minutes % 60;
+	return m ? `${plural(h, 'hour')} ${plural(m, 'minute')}` : plural(h, 'hour');
+}

@@ -107,4 +107,6 @@ export const roleChangeSchema = z.object({
 	role: z.enum(ROLES, { error: 'Pick a role.' })
 });
 
+export const memberRemovalSchema = z.object({ userId: z.coerce.number().int().positive() });
+
 export const projectMemberSchema = z.object({ email });

@@ -2,7 +2,7 @@ import { error } from '@sveltejs/kit';
 import { authorize, membershipsAllowing } from '$lib/server/auth/access';
 import { formAction } from '$lib/server/forms';
 import * as people from '$lib/server/people/service';
-import { invitationSchema, roleChangeSchema } from '$lib/schemas/projects';
+import { invitationSchema, memberRemovalSchema, roleChangeSchema } from '$lib/schemas/projects';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 
 /** The organization being managed: ?org=ID, else the first one the user administers. */
@@ -35,6 +35,14 @@ export const actions = {
 		return formAction(event.request, roleChangeSchema, async (input) => {
 			await people.changeRole(scope, input);
 			return { roleChanged: true };
+		});
+	},
+
+	removeMember: async (event) => {
+		const scope = await manager(event);
+		return formAction(event.request, memberRemovalSchema, async (input) => {
+			await people.removeMember(scope, input.userId);
+			return { removed: true };
 		});
 	}
 } satisfies Actions;

@@ -7,7 +7,7 @@ import type { Actions, PageServerLoad } from './$types';
 
 export const load = (async ({ locals, url }) => {
 	if (locals.user) redirect(303, safeRedirectPath(url.searchParams.get('redirectTo')));
-	return { redirectTo: safeRedirectPath(url.searchParams.get('redirectTo')), reset: url.searchParams.has('reset') };
+	return { redirectTo: safeRedirectPath(url.searchParams.get('redirectTo')), reset: url.searchParams.has('reset'), signedOutEverywhere: url.searchParams.get('signedOut') === 'everywhere' };
 }) satisfies PageServerLoad;
 
 export const actions = {

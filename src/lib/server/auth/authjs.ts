@@ -1,4 +1,8 @@
-// Auth.js (@auth/sveltekit): e-mail + password credentials, JWT sessions carrying the user id.
+// Auth.js (@auth/sveltekit): e-mail + password credentials, JWT sessions carrying the user id,
+// the account's session version at sign-in and an id of the session, so that a session can be
+// ended before its token expires (see session-user.ts).
+import { randomUUID } from 'node:crypto';
+import type { Cookies } from '@sveltejs/kit';
 import { SvelteKitAuth, type SvelteKitAuthConfig } from '@auth/sveltekit';
 import Credentials from '@auth/sveltekit/providers/credentials';
 import { Auth, raw, skipCSRFCheck } from '@auth/core';
@@ -6,9 +10,18 @@ import { config } from '../config';
 import { db } from '../db';
 import { findAccount } from '../queries/users';
 import { verifyPassword } from './password';
+import type { SessionToken } from './session-user';
 import { signInSchema } from '../../schemas/auth';
 
-const SESSION_HOURS = 12;
+export const SESSION_HOURS = 12;
+
+/** What a session token says beyond the user id. */
+export interface SessionClaims {
+	sessionId: string;
+	sessionVersion: number;
+	/** Sign-in time, ms since the epoch: a session lasts SESSION_HOURS from it, however often its token is refreshed. */
+	signedInAt: number;
+}
 
 /** Cookies are Secure exactly when the public address is HTTPS (not per request, behind a proxy). */
 export function usesSecureCookies(): boolean {
@@ -36,18 +49,28 @@ export function authConfig(): SvelteKitAuthConfig {
 					const parsed = signInSchema.safeParse(input);
 					if (!parsed.success) return null;
 					const user = await findAccount(db(), parsed.data.email);
-					if (!user || !(await verifyPassword(user.passwordHash, parsed.data.password))) return null;
-					return { id: String(user.id), email: user.email, name: user.name };
+					// An unknown account is checked against a stand-in hash: both answers take as long.
+					if (!(await verifyPassword(user?.passwordHash, parsed.data.password)) || !user) return null;
+					return { id: String(user.id), email: user.email, name: user.name, sessionVersion: user.sessionVersion };
 				}
 			})
 		],
 		callbacks: {
 			jwt({ token, user }) {
-				if (user?.id) token.sub = user.id;
+				if (user?.id) {
+					token.sub = user.id;
+					token.sid = randomUUID();
+					token.sv = (user as { sessionVersion?: number }).sessionVersion ?? 0;
+					token.sat = Date.now();
+				}
 				return token;
 			},
 			session({ session, token }) {
 				if (token.sub && session.user) session.user.id = token.sub;
+				const claims = session as typeof session & Partial<SessionClaims>;
+				if (typeof token.sid === 'string') claims.sessionId = token.sid;
+				if (typeof token.sv === 'number') claims.sessionVersion = token.sv;
+				if (typeof token.sat === 'number') claims.signedInAt = token.sat;
 				return session;
 			}
 		}
@@ -98,4 +121,17 @@ export async function signOutCookies(origin: string, cookieHeader: string): Prom
 	});
 	const res = await Auth(request, { ...authConfig(), raw, skipCSRFCheck });
 	return (res.cookies ?? []) as CookieToSet[];
+}
+
+/** Remove the session cookie from the browser (after a sign-out, or when its session was ended). */
+export function clearSessionCookies(cookies: Cookies): void {
+	for (const name of ['authjs.session-token', '__Secure-authjs.session-token']) cookies.delete(name, { path: '/', secure: usesSecureCookies() });
+}
+
+/** The session claims of `locals.auth()`'s answer, or null without a signed-in user. */
+export function sessionTokenOf(session: unknown): SessionToken | null {
+	const s = session as ({ user?: { id?: string } } & Partial<SessionClaims>) | null;
+	const userId = Number(s?.user?.id);
+	if (!s || !Number.isInteger(userId) || userId <= 0) return null;
+	return { userId, sessionId: s.sessionId, sessionVersion: s.sessionVersion, signedInAt: s.signedInAt };
 }

@@ -7,15 +7,18 @@ import { config } from '../config';
 import { db } from '../db';
 import { enqueueMail } from '../mail';
 import { invitationMail, passwordResetMail } from '../messages';
-import { conflict, invalid, notFound } from '../problem';
+import { conflict, invalid, notFound, Problem } from '../problem';
 import { transaction } from '../transaction';
 import { hashPassword } from '../auth/password';
+import { clearBucket, takeAttempts } from '../auth/rate-limit';
+import { raiseSessionVersion } from '../queries/auth-sessions';
+import { formatWait } from '../../format';
 import type { Scope, SessionUser } from '../auth/access';
 import { getOrganization } from '../queries/organizations';
-import { addMembership, countAdmins, findMemberByEmail, listMembers, lockMemberRole, setRole } from '../queries/members';
+import { addMembership, countAdmins, findMemberByEmail, listMembers, lockMemberRole, removeMembership, setRole } from '../queries/members';
 import { addProjectClient, isProjectOf, listProjectNames } from '../queries/projects';
 import { claimInvitation, claimPasswordReset, createInvitation, createPasswordReset, findUsableInvitation, findUsableReset, listPendingInvitations } from '../queries/tokens';
-import { createUser, findAccount, setPasswordHash, setUnitSystem } from '../queries/users';
+import { createUser, findAccount, getUser, setPasswordHash, setUnitSystem } from '../queries/users';
 import type { invitationSchema, roleChangeSchema } from '../../schemas/projects';
 
 type InvitationInput = z.output<typeof invitationSchema>;
@@ -66,6 +69,24 @@ export async function changeRole(scope: Scope, input: RoleChange): Promise<void>
 	});
 }
 
+/**
+ * Remove someone from the organization: the membership, their client access to its projects,
+ * and every session they have (it ends at once, on every server). The organization keeps at
+ * least one admin.
+ */
+export async function removeMember(scope: Scope, userId: number): Promise<void> {
+	await transaction(async (trx) => {
+		const current = await lockMemberRole(trx, scope.organizationId, userId);
+		if (!current) throw notFound('That person is not a member.');
+		if (current === 'admin' && (await countAdmins(trx, scope.organizationId)) <= 1) {
+			throw conflict('An organization needs at least one admin.');
+		}
+		await removeMembership(trx, scope.organizationId, userId);
+		await raiseSessionVersion(trx, userId);
+		await audit(trx, scope, 'membership.removed', 'user', userId, { role: current });
+	});
+}
+
 export function usableInvitation(token: string) {
 	return findUsableInvitation(db(), token);
 }
@@ -91,8 +112,19 @@ export async function acceptInvitation(token: string, input: { name?: string; pa
 	});
 }
 
-/** Mail a reset link if the address has an account; the caller answers the same either way. */
-export async function requestPasswordReset(email: string): Promise<void> {
+/**
+ * Mail a reset link if the address has an account; the caller answers the same either way.
+ * Limited per address asked for (known or not) and per address asking, counted before anything
+ * is looked up, so a flood of requests sends a few mails and says nothing about accounts.
+ */
+export async function requestPasswordReset(email: string, from: string): Promise<void> {
+	const verdict = await takeAttempts(db(), [
+		{ name: 'resetAccount', who: email },
+		{ name: 'resetAddress', who: from }
+	]);
+	if (!verdict.allowed) {
+		throw new Problem(429, `Too many reset requests. Try again in ${formatWait(verdict.retryAfterMs)}; a link already sent still works.`, { code: 'rate_limited' });
+	}
 	await transaction(async (trx) => {
 		const user = await findAccount(trx, email);
 		if (!user) return;
@@ -105,14 +137,22 @@ export function usableReset(token: string) {
 	return findUsableReset(db(), token);
 }
 
-/** Set a new password with a reset token; false when the token was used or has expired. */
+/**
+ * Set a new password with a reset token; false when the token was used or has expired. Every
+ * session of the account ends, and its sign-in lockout is lifted (the mailbox is proven).
+ */
 export async function resetPassword(token: string, password: string): Promise<boolean> {
-	return transaction(async (trx) => {
+	const passwordHash = await hashPassword(password);
+	const email = await transaction(async (trx) => {
 		const userId = await claimPasswordReset(trx, token);
-		if (userId === null) return false;
-		await setPasswordHash(trx, userId, await hashPassword(password));
-		return true;
+		if (userId === null) return null;
+		await setPasswordHash(trx, userId, passwordHash);
+		await audit(trx, { organizationId: null, user: { id: userId } }, 'password.reset', 'user', userId);
+		return (await getUser(trx, userId))!.email;
 	});
+	if (email === null) return false;
+	await clearBucket(db(), 'signInAccount', email);
+	return true;
 }
 
 export async function savePreferences(user: SessionUser, prefs: { unitSystem: SessionUser['unitSystem'] }): Promise<void> {

@@ -46,3 +46,12 @@ export async function countAdmins(k: Knex, organizationId: number): Promise<numb
 export async function addMembership(k: Knex, m: { userId: number; organizationId: number; role: Role }): Promise<void> {
 	await k('memberships').insert({ user_id: m.userId, organization_id: m.organizationId, role: m.role }).onConflict(['user_id', 'organization_id']).ignore();
 }
+
+/** Remove the membership, and the person's access as a client to the organization's projects. */
+export async function removeMembership(k: Knex, organizationId: number, userId: number): Promise<void> {
+	await k('project_members')
+		.where({ user_id: userId })
+		.whereIn('project_id', k('projects').where({ organization_id: organizationId }).select('id'))
+		.delete();
+	await k('memberships').where({ organization_id: organizationId, user_id: userId }).delete();
+}

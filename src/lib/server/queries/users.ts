@@ -7,10 +7,11 @@ export interface AccountRow {
 	email: string;
 	name: string;
 	passwordHash: string | null;
+	sessionVersion: number;
 }
 
 export async function findAccount(k: Knex, email: string): Promise<AccountRow | undefined> {
-	return k('users').where({ email }).first({ id: 'id', email: 'email', name: 'name', passwordHash: 'password_hash' });
+	return k('users').where({ email }).first({ id: 'id', email: 'email', name: 'name', passwordHash: 'password_hash', sessionVersion: 'session_version' });
 }
 
 export async function getUser(k: Knex, id: number): Promise<SessionUser | undefined> {
@@ -31,8 +32,9 @@ export async function createUser(k: Knex, u: { email: string; name: string; pass
 	return id;
 }
 
+/** Set a new password; every session of the account ends with it (its session version moves on). */
 export async function setPasswordHash(k: Knex, userId: number, passwordHash: string): Promise<void> {
-	await k('users').where({ id: userId }).update({ password_hash: passwordHash });
+	await k('users').where({ id: userId }).update({ password_hash: passwordHash, session_version: k.raw('session_version + 1') });
 }
 
 export async function setUnitSystem(k: Knex, userId: number, unitSystem: SessionUser['unitSystem']): Promise<void> {

@@ -4,9 +4,9 @@ import { forgotPasswordSchema } from '$lib/schemas/auth';
 import type { Actions } from './$types';
 
 export const actions = {
-	default: async ({ request }) =>
-		formAction(request, forgotPasswordSchema, async (input) => {
-			await people.requestPasswordReset(input.email);
+	default: async (event) =>
+		formAction(event.request, forgotPasswordSchema, async (input) => {
+			await people.requestPasswordReset(input.email, event.getClientAddress());
 			// Same answer either way, so the form does not reveal which addresses have accounts.
 			return { sent: true, email: input.email };
 		})
