@@ -63,15 +63,17 @@ export async function createRoom(scope: Scope, projectId: number, input: roomRow
 	});
 }
 
-/** A room with its project, visits, comparisons (published ones only for clients) and problem bands. */
+/** A room with its project, visits, comparisons (published ones only for clients) and problem bands
+ * (not for clients: a consultant's marks reach them only inside a published report). */
 export async function roomOverview(scope: Scope, roomId: number) {
 	const k = db();
 	const room = (await roomRows.getRoom(k, roomId))!;
+	const internal = roleAllows(scope.role, 'project:internal');
 	const [project, sessions, comparisons, problemBands] = await Promise.all([
 		projectRows.getProject(k, room.projectId),
 		sessionRows.listSessions(k, roomId),
-		listComparisons(k, roomId, !roleAllows(scope.role, 'project:internal')),
-		listProblemBands(k, roomId)
+		listComparisons(k, roomId, !internal),
+		internal ? listProblemBands(k, roomId) : []
 	]);
 	return { room, project: { id: project!.id, name: project!.name }, sessions, comparisons, problemBands };
 }

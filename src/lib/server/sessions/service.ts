@@ -26,7 +26,7 @@ export async function visitPage(scope: Scope, sessionId: number) {
 		getProject(k, room.projectId),
 		internal ? sessionCaptureViews(k, sessionId) : [],
 		internal ? loadSessionSummary(k, sessionId) : null,
-		listProblemBands(k, room.id),
+		internal ? listProblemBands(k, room.id) : [],
 		upload ? listSweeps(k, scope.organizationId) : [],
 		listPositions(k, sessionId)
 	]);
