@@ -25,14 +25,36 @@ export function fftSizeFor(n: number): number {
 export function fftOfSize(size: number): FFT {
 	let fft = kept.get(size);
 	if (!fft) {
-		fft = new FFT(size);
-		const internals = fft as unknown as { table: ArrayLike<number>; _bitrev: ArrayLike<number> };
-		internals.table = Float64Array.from(internals.table);
-		internals._bitrev = Int32Array.from(internals._bitrev);
+		fft = typedFft(size);
 		// The largest are let go first, so big tables do not pile up in a long-lived worker.
 		if (kept.size >= MAX_KEPT_SIZES) kept.delete(Math.max(...kept.keys()));
 		kept.set(size, fft);
 	}
+	return fft;
+}
+
+/**
+ * An fft.js instance whose tables are typed arrays from the start (its constructor fills plain
+ * arrays first): the same fields, filled by the same expressions as fft.js 4.0.4's constructor.
+ */
+function typedFft(size: number): FFT {
+	if (!(size > 1 && isPowerOfTwo(size))) throw new RangeError(`FFT size must be a power of two and bigger than 1, got ${size}`);
+	const table = new Float64Array(size * 2);
+	for (let i = 0; i < table.length; i += 2) {
+		const angle = (Math.PI * i) / size;
+		table[i] = Math.cos(angle);
+		table[i + 1] = -Math.sin(angle);
+	}
+	let power = 0;
+	for (let t = 1; size > t; t <<= 1) power++;
+	// Radix-4 from an initial length of 8 when the power is even, else of 4 (fft.js's own rule).
+	const width = power % 2 === 0 ? power - 1 : power;
+	const bitrev = new Int32Array(1 << width);
+	for (let j = 0; j < bitrev.length; j++) {
+		for (let shift = 0; shift < width; shift += 2) bitrev[j] |= ((j >>> shift) & 3) << (width - shift - 2);
+	}
+	const fft = Object.create(FFT.prototype) as FFT;
+	Object.assign(fft, { size, _csize: size << 1, table, _width: width, _bitrev: bitrev, _out: null, _data: null, _inv: 0 });
 	return fft;
 }
 
@@ -59,7 +81,8 @@ export class RealFftPlan {
 	/** cos, sin of 2πk/N for k < N/2. */
 	private readonly twiddle: Float64Array;
 	private readonly packed: Float64Array;
-	private readonly transformed: Float64Array;
+	/** Only for an inverse into an output longer than N. */
+	private transformed: Float64Array | undefined;
 
 	constructor(size: number) {
 		if (!isPowerOfTwo(size) || size < 8) throw new RangeError(`real FFT size must be a power of two ≥ 8, got ${size}`);
@@ -72,10 +95,9 @@ export class RealFftPlan {
 			this.twiddle[2 * k + 1] = Math.sin(angle);
 		}
 		this.packed = new Float64Array(size);
-		this.transformed = new Float64Array(size);
 	}
 
-	/** Writes the half spectrum of `input` (zero-padded to N; longer input is an error) into `spectrum`. */
+	/** Writes the half spectrum of `input` (zero-padded to N; longer input is an error) into `spectrum`, which must not overlap it. */
 	forward(input: Float64Array, spectrum: Float64Array): void {
 		const n = this.size;
 		if (input.length > n) throw new RangeError(`input of ${input.length} samples does not fit a ${n}-point FFT`);
@@ -87,28 +109,24 @@ export class RealFftPlan {
 			source = this.packed;
 		}
 		// Even samples as real parts, odd samples as imaginary parts: the input already is that array.
-		const z = this.transformed;
+		// The complex transform lands in the spectrum buffer itself; bins k and m − k are then made
+		// from the same two values of it, so each pair is read before either is written.
+		const z = spectrum;
 		this.half.transform(z, source);
 		releaseFft(this.half);
 		const m = n / 2;
-		const tw = this.twiddle;
-		for (let k = 0; k <= m; k++) {
-			const a = k === m ? 0 : k;
-			const b = k === 0 || k === m ? 0 : m - k;
-			const zr = z[2 * a];
-			const zi = z[2 * a + 1];
+		const z0r = z[0];
+		const z0i = z[1];
+		writeBin(spectrum, this.twiddle, m, m, z0r, z0i, z0r, -z0i);
+		writeBin(spectrum, this.twiddle, m, 0, z0r, z0i, z0r, -z0i);
+		for (let k = 1; 2 * k <= m; k++) {
+			const b = m - k;
+			const zr = z[2 * k];
+			const zi = z[2 * k + 1];
 			const cr = z[2 * b];
-			const ci = -z[2 * b + 1];
-			// E = (Z[k] + conj Z[m−k]) / 2,  O = (Z[k] − conj Z[m−k]) / 2j
-			const er = (zr + cr) / 2;
-			const ei = (zi + ci) / 2;
-			const or = (zi - ci) / 2;
-			const oi = -(zr - cr) / 2;
-			// X[k] = E + W^k·O with W^k = cos − j·sin
-			const c = k === m ? -1 : tw[2 * k];
-			const s = k === m ? 0 : tw[2 * k + 1];
-			spectrum[2 * k] = er + (c * or + s * oi);
-			spectrum[2 * k + 1] = ei + (c * oi - s * or);
+			const ci = z[2 * b + 1];
+			writeBin(spectrum, this.twiddle, m, k, zr, zi, cr, -ci);
+			if (b !== k) writeBin(spectrum, this.twiddle, m, b, cr, ci, zr, -zi);
 		}
 	}
 
@@ -137,11 +155,25 @@ export class RealFftPlan {
 			z[2 * k] = er - oi;
 			z[2 * k + 1] = ei + or;
 		}
-		const result = n === output.length ? output : this.transformed;
+		const result = n === output.length ? output : (this.transformed ??= new Float64Array(n));
 		this.half.inverseTransform(result, z);
 		releaseFft(this.half);
 		if (result !== output) output.set(result);
 	}
+}
+
+/** Bin k of a real FFT from Z[k] = (zr, zi) and conj Z[m−k] = (cr, ci) of the half-size transform. */
+function writeBin(spectrum: Float64Array, tw: Float64Array, m: number, k: number, zr: number, zi: number, cr: number, ci: number): void {
+	// E = (Z[k] + conj Z[m−k]) / 2,  O = (Z[k] − conj Z[m−k]) / 2j
+	const er = (zr + cr) / 2;
+	const ei = (zi + ci) / 2;
+	const or = (zi - ci) / 2;
+	const oi = -(zr - cr) / 2;
+	// X[k] = E + W^k·O with W^k = cos − j·sin
+	const c = k === m ? -1 : tw[2 * k];
+	const s = k === m ? 0 : tw[2 * k + 1];
+	spectrum[2 * k] = er + (c * or + s * oi);
+	spectrum[2 * k + 1] = ei + (c * oi - s * or);
 }
 
 const realPlans = new Map<number, RealFftPlan>();
