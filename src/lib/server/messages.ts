@@ -30,9 +30,10 @@ export function passwordResetMail(p: { link: string }) {
 }
 
 export function sessionAnalysedMail(p: { roomName: string; condition: string; analysed: number; failed: number; link: string }) {
-	const total = p.analysed + p.failed;
+	const captures = (n: number) => `${n} capture${n === 1 ? '' : 's'}`;
+	const outcome = p.failed === 0 ? `${captures(p.analysed)} analysed` : `${captures(p.analysed)} analysed, ${p.failed} failed`;
 	return {
-		subject: `${p.roomName}, ${p.condition}: ${total} capture${total === 1 ? '' : 's'} analysed`,
+		subject: `${p.roomName}, ${p.condition}: ${outcome}`,
 		text: [
 			`All captures of the visit "${p.condition}" in ${p.roomName} have been through the analysis.`,
 			'',
