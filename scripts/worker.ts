@@ -9,6 +9,7 @@ import { createTransport, deliverDueMail } from '../src/lib/server/mail';
 import { createStorage } from '../src/lib/server/storage';
 import { runNextJob } from '../src/lib/server/jobs/runner';
 import { removeAbandonedUploads } from '../src/lib/server/captures/service';
+import { removeOrphanObjects } from '../src/lib/server/housekeeping/orphan-objects';
 
 const HOUSEKEEPING_MS = 10 * 60_000;
 
@@ -39,6 +40,8 @@ async function main() {
 				lastHousekeeping = Date.now();
 				const removed = await removeAbandonedUploads(k, 24, s);
 				if (removed) log(`removed ${removed} abandoned upload(s)`);
+				const orphans = await removeOrphanObjects(k, s);
+				if (orphans) log(`removed ${orphans} stored object(s) no record refers to`);
 			}
 			const outcome = await runNextJob(k, s, { owner, leaseMs: LEASE_MS, log });
 			if (outcome) busy = true;

@@ -20,6 +20,12 @@ const configSchema = z.object({
 		.enum(['true', 'false'])
 		.default('true')
 		.transform((v) => v === 'true'),
+	// A store that does not take the connection, or stops answering mid-request, counts as down
+	// after these (each request is tried twice): the answer is a 503 instead of a hung request.
+	S3_CONNECT_TIMEOUT_MS: z.coerce.number().int().positive().default(2_000),
+	S3_IDLE_TIMEOUT_MS: z.coerce.number().int().positive().default(5_000),
+	// The longest one request may take in all (a large scripted upload included).
+	S3_REQUEST_TIMEOUT_MS: z.coerce.number().int().positive().default(300_000),
 
 	SMTP_HOST: z.string().default('127.0.0.1'),
 	SMTP_PORT: z.coerce.number().int().positive().default(2525),

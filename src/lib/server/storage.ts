@@ -4,6 +4,7 @@ import {
 	HeadBucketCommand,
 	GetObjectCommand,
 	HeadObjectCommand,
+	ListObjectsV2Command,
 	PutObjectCommand,
 	S3Client,
 	type PutObjectCommandInput
@@ -11,7 +12,7 @@ import {
 import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
 import { randomUUID } from 'node:crypto';
 import { config, type AppConfig } from './config';
-import { unavailable } from './problem';
+import { Problem, unavailable } from './problem';
 
 const STORAGE_DOWN = 'Object storage is not reachable right now. Try again in a moment.';
 
@@ -24,7 +25,15 @@ function client(c: AppConfig, endpoint: string): S3Client {
 		// With the SDK defaults a streamed upload was stored with chunk framing inside the object.
 		requestChecksumCalculation: 'WHEN_REQUIRED',
 		responseChecksumValidation: 'WHEN_REQUIRED',
-		maxAttempts: 2
+		maxAttempts: 2,
+		// Without these a store that accepts the connection and then says nothing (paused, or
+		// overloaded) held each request for as long as the caller waited.
+		requestHandler: {
+			connectionTimeout: c.S3_CONNECT_TIMEOUT_MS,
+			socketTimeout: c.S3_IDLE_TIMEOUT_MS,
+			requestTimeout: c.S3_REQUEST_TIMEOUT_MS,
+			throwOnRequestTimeout: true
+		}
 	});
 }
 
@@ -38,6 +47,8 @@ export interface Storage {
 	getBytes(key: string, range?: { start: number; end: number }): Promise<Uint8Array>;
 	put(key: string, body: PutObjectCommandInput['Body'], contentType: string, contentLength?: number): Promise<void>;
 	remove(key: string): Promise<void>;
+	/** The objects under a prefix, a page at a time (`after` is the previous page's `next`). */
+	list(prefix: string, after?: string): Promise<{ objects: { key: string; lastModified: Date }[]; next: string | undefined }>;
 }
 
 const isNotFound = (e: unknown) => {
@@ -45,12 +56,18 @@ const isNotFound = (e: unknown) => {
 	return x?.name === 'NotFound' || x?.name === 'NoSuchKey' || x?.$metadata?.httpStatusCode === 404;
 };
 
-/** Network-level failures become a 503 problem; S3 answers pass through. */
+/**
+ * The one place storage failures are mapped: the store not answering (refused, reset, timed out,
+ * or answering 5xx after the SDK's retry) becomes a 503 problem, which API routes, form actions
+ * and pages all answer as "briefly unavailable"; other S3 answers (404, 403…) pass through.
+ */
 async function guard<T>(work: () => Promise<T>): Promise<T> {
 	try {
 		return await work();
 	} catch (e) {
-		if ((e as { $metadata?: { httpStatusCode?: number } })?.$metadata?.httpStatusCode) throw e;
+		if (e instanceof Problem) throw e;
+		const status = (e as { $metadata?: { httpStatusCode?: number } })?.$metadata?.httpStatusCode;
+		if (status !== undefined && status < 500) throw e;
 		throw unavailable(STORAGE_DOWN, e);
 	}
 }
@@ -87,16 +104,24 @@ export function createStorage(c: AppConfig = config()): Storage {
 			}
 		},
 		async getBytes(key, range) {
-			const r = await guard(() =>
-				s3.send(new GetObjectCommand({ Bucket, Key: key, Range: range ? `bytes=${range.start}-${range.end}` : undefined }))
-			);
-			return new Uint8Array(await r.Body!.transformToByteArray());
+			// The body is read inside the guard too: a store can stall after the headers.
+			return guard(async () => {
+				const r = await s3.send(new GetObjectCommand({ Bucket, Key: key, Range: range ? `bytes=${range.start}-${range.end}` : undefined }));
+				return new Uint8Array(await r.Body!.transformToByteArray());
+			});
 		},
 		async put(key, body, contentType, contentLength) {
 			await guard(() => s3.send(new PutObjectCommand({ Bucket, Key: key, Body: body, ContentType: contentType, ContentLength: contentLength })));
 		},
 		async remove(key) {
 			await guard(() => s3.send(new DeleteObjectCommand({ Bucket, Key: key })));
+		},
+		async list(prefix, after) {
+			const r = await guard(() => s3.send(new ListObjectsV2Command({ Bucket, Prefix: prefix, ContinuationToken: after })));
+			return {
+				objects: (r.Contents ?? []).filter((o) => o.Key).map((o) => ({ key: o.Key!, lastModified: o.LastModified ?? new Date() })),
+				next: r.IsTruncated ? r.NextContinuationToken : undefined
+			};
 		}
 	};
 }

@@ -139,8 +139,9 @@ export async function confirmUpload(scope: Scope, captureId: number, s: Storage 
 		header = await checkObject(s, capture.objectKey, capture.sizeBytes, capture.channel);
 		if (capture.referenceObjectKey) await checkObject(s, capture.referenceObjectKey, null, null);
 	} catch (e) {
-		// Not there yet (409) may still arrive; anything else about the file will not get better.
-		if (e instanceof Problem && e.status !== 409) await removeCapture(scope, capture, s, 'capture.refused', { reason: e.message });
+		// Not there yet (409) may still arrive, and a store that is briefly down (503) may answer
+		// next time; anything else about the file will not get better.
+		if (e instanceof Problem && e.status < 500 && e.status !== 409) await removeCapture(scope, capture, s, 'capture.refused', { reason: e.message });
 		throw e;
 	}
 	await transaction(async (trx) => {
