@@ -14,7 +14,7 @@
  *    against SciPy's; the lower bound (one FFT of the file plus ten zero-phase band passes in
  *    numpy/scipy) beside it; the engine's peak memory beyond the decoded file, in bytes per sample.
  *    The engine is timed as the worker runs it (with chart curves) and as the command line does
- *    (without).
+ *    (without), each in its own fresh process.
  * 2. Whole process: `npx tsx scripts/analyze.ts …` against `python3 tests/reference/pipeline.py …`,
  *    CPU time (user + system) and wall time.
  * Engine and SciPy runs alternate, and each ratio is the median over the rounds of the pairs, so a
@@ -44,8 +44,6 @@ interface Case {
 interface EngineTiming {
 	coldMs: number;
 	warmMs: number;
-	coldNoCurvesMs: number;
-	warmNoCurvesMs: number;
 	bytesPerSample: number;
 	samples: number;
 }
@@ -132,8 +130,8 @@ function cpuMs(work: () => void): number {
 	return (used.user + used.system) / 1000;
 }
 
-/** Child process: one fresh engine, timed on its first call and on the next ones. */
-async function engineChild(file: string, bands: 'octave' | 'third', reference: string | undefined): Promise<void> {
+/** Child process: one fresh engine, timed on its first call and on the next ones, with or without curves. */
+async function engineChild(file: string, bands: 'octave' | 'third', curves: boolean, reference: string | undefined): Promise<void> {
 	const { analyseDecodedRecording } = await import('../src/lib/analysis/analyse');
 	const { decodeWav } = await import('../src/lib/analysis/wav');
 	// Decoding is left out of the time, as SciPy's file reading is.
@@ -141,17 +139,14 @@ async function engineChild(file: string, bands: 'octave' | 'third', reference: s
 	const played = reference ? decodeWav(readFileSync(reference)) : null;
 	const samples = decoded.samples.length;
 	const rssBefore = process.memoryUsage().rss;
-	const timed = (curves: boolean) =>
+	const timed = () =>
 		cpuMs(() => analyseDecodedRecording(decoded, { bands, curves, reference: played?.samples, referenceSampleRate: played?.sampleRate }));
-	const coldMs = timed(true);
+	const coldMs = timed();
 	const peakRss = process.resourceUsage().maxRSS * 1024;
-	const warm = Array.from({ length: WARM_RUNS }, () => timed(true));
-	const noCurves = Array.from({ length: WARM_RUNS + 1 }, () => timed(false));
+	const warm = Array.from({ length: WARM_RUNS }, timed);
 	const result: EngineTiming = {
 		coldMs,
 		warmMs: median(warm),
-		coldNoCurvesMs: noCurves[0],
-		warmNoCurvesMs: median(noCurves.slice(1)),
 		// The file's own samples (8 bytes each, decoded) are in rssBefore.
 		bytesPerSample: Math.max(0, peakRss - rssBefore) / samples,
 		samples
@@ -159,9 +154,9 @@ async function engineChild(file: string, bands: 'octave' | 'third', reference: s
 	process.stdout.write(JSON.stringify(result));
 }
 
-/** Cold engine timing in a fresh process (the first call of that process is the cold one). */
-function engineInProcess(c: Case): EngineTiming {
-	const args = ['--import', 'tsx', self, '--engine-child', c.file, c.bands, ...(c.reference ? [c.reference] : [])];
+/** Engine timing in a fresh process (the first call of that process is the cold one). */
+function engineInProcess(c: Case, curves: boolean): EngineTiming {
+	const args = ['--import', 'tsx', self, '--engine-child', c.file, c.bands, curves ? 'curves' : 'plain', ...(c.reference ? [c.reference] : [])];
 	const child = spawnSync(process.execPath, args, { cwd: root, encoding: 'utf8', maxBuffer: 1 << 20 });
 	if (child.status !== 0) throw new Error(`engine child failed: ${child.stderr}`);
 	return JSON.parse(child.stdout) as EngineTiming;
@@ -200,16 +195,17 @@ async function main(argv: string[]): Promise<void> {
 	console.log(`engine vs SciPy (${PYTHON}), ${rounds} interleaved rounds; load average at start ${load()} (1, 5, 15 min)`);
 
 	for (const c of cases) {
-		const pairs: { engine: EngineTiming; scipy: ScipyTiming }[] = [];
+		const runs: { engine: EngineTiming; plain: EngineTiming; scipy: ScipyTiming }[] = [];
 		for (let round = 0; round < rounds; round++) {
 			const scipy = scipyInProcess(c);
-			const engine = engineInProcess(c);
-			pairs.push({ engine, scipy });
+			const engine = engineInProcess(c, true);
+			const plain = engineInProcess(c, false);
+			runs.push({ engine, plain, scipy });
 		}
-		const m = (f: (pair: (typeof pairs)[number]) => number) => median(pairs.map(f));
-		console.log(`\n${c.label} (${pairs[0].engine.samples} samples)`);
+		const m = (f: (pair: (typeof runs)[number]) => number) => median(runs.map(f));
+		console.log(`\n${c.label} (${runs[0].engine.samples} samples)`);
 		console.log(
-			`  in-process CPU, with curves: first ${m((p) => p.engine.coldMs).toFixed(0)} ms, then ${m((p) => p.engine.warmMs).toFixed(0)} ms;` +
+			`  in-process CPU, with curves (the worker): first ${m((p) => p.engine.coldMs).toFixed(0)} ms, then ${m((p) => p.engine.warmMs).toFixed(0)} ms;` +
 				` SciPy first ${m((p) => p.scipy.coldMs).toFixed(0)} ms, then ${m((p) => p.scipy.warmMs).toFixed(0)} ms`
 		);
 		console.log(
@@ -217,10 +213,13 @@ async function main(argv: string[]): Promise<void> {
 				` first call / lower bound (${m((p) => p.scipy.lowerBoundMs).toFixed(0)} ms) ${mark(m((p) => p.engine.coldMs / p.scipy.lowerBoundMs), 4)}`
 		);
 		console.log(
-			`  in-process, no curves (the command line): first ${m((p) => p.engine.coldNoCurvesMs).toFixed(0)} ms, then ${m((p) => p.engine.warmNoCurvesMs).toFixed(0)} ms;` +
-				` ratio warm ${ratio(m((p) => p.engine.warmNoCurvesMs / p.scipy.warmMs))}`
+			`  in-process CPU, no curves (the command line): first ${m((p) => p.plain.coldMs).toFixed(0)} ms, then ${m((p) => p.plain.warmMs).toFixed(0)} ms;` +
+				` ratio first ${mark(m((p) => p.plain.coldMs / p.scipy.coldMs), c.goals.cold)}, warm ${mark(m((p) => p.plain.warmMs / p.scipy.warmMs), c.goals.warm)};` +
+				` first / lower bound ${mark(m((p) => p.plain.coldMs / p.scipy.lowerBoundMs), 4)}`
 		);
-		console.log(`  peak memory beyond the decoded file: ${m((p) => p.engine.bytesPerSample).toFixed(1)} bytes per sample (goal ≤ 20)`);
+		console.log(
+			`  peak memory beyond the decoded file: ${m((p) => p.engine.bytesPerSample).toFixed(1)} bytes per sample with curves, ${m((p) => p.plain.bytesPerSample).toFixed(1)} without (goal ≤ 20)`
+		);
 		if (!argv.includes('--no-cli')) {
 			const cli: { engine: ReturnType<typeof wholeProcess>; scipy: ReturnType<typeof wholeProcess> }[] = [];
 			for (let round = 0; round < rounds; round++) cli.push({ scipy: wholeProcess(cliScipy(c)), engine: wholeProcess(cliEngine(c)) });
@@ -236,7 +235,7 @@ async function main(argv: string[]): Promise<void> {
 
 const argv = process.argv.slice(2);
 if (argv[0] === '--engine-child') {
-	await engineChild(argv[1], argv[2] as 'octave' | 'third', argv[3]);
+	await engineChild(argv[1], argv[2] as 'octave' | 'third', argv[3] === 'curves', argv[4]);
 } else {
 	await main(argv);
 }
