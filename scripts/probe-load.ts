@@ -2,7 +2,8 @@
 //   [--pid PID] [--session ID --comparison ID --capture ID] [--only projects,visit,...]`
 // Load on a running instance on loopback (default the demo, http://127.0.0.1:3000): signs in
 // (the demo consultant), finds a visit, a comparison and an analysed capture by following the
-// pages' own links, then drives each route with N connections for S seconds (autocannon) and
+// pages' own links, then drives each route (and the analysis JSON the capture page draws from)
+// with N connections for S seconds (autocannon) and
 // prints one row per route — requests per second, p50 and p99 answer times, non-2xx answers and
 // socket errors — and the server's resident memory before, at the peak, after the run and after
 // a 10 s pause. Exit status 1 when any answer was an error. Bounded: at most 500 connections and
@@ -108,7 +109,7 @@ async function drive(route: string, path: string, cookie: string): Promise<Row> 
 		connections,
 		duration,
 		timeout: 30,
-		headers: { cookie, accept: 'text/html' }
+		headers: { cookie, accept: path.startsWith('/api/') ? 'application/json' : 'text/html' }
 	});
 	const mem = watch?.stop();
 	return {
@@ -133,7 +134,9 @@ const routes: [string, string | undefined][] = [
 	['projects', '/projects'],
 	['visit', targets.session],
 	['comparison', targets.comparison],
-	['analysis', targets.capture]
+	['analysis', targets.capture],
+	// The analysis page draws its charts from this JSON.
+	['analysis-api', targets.capture && `/api${targets.capture}/analysis`]
 ];
 const only = values.only?.split(',').map((s) => s.trim());
 console.log(`Load on ${base.origin} as ${values.email}: ${connections} connections, ${duration} s per route; server pid ${serverPid ?? 'not visible'}`);
@@ -142,15 +145,15 @@ const rows: Row[] = [];
 for (const [route, path] of routes) {
 	if (only && !only.includes(route)) continue;
 	if (!path) {
-		console.log(`${route}: no ${route} page found for this user — skipped (pass it with --${route === 'visit' ? 'session' : route === 'analysis' ? 'capture' : route})`);
+		console.log(`${route}: no ${route} page found for this user — skipped (pass it with --${route === 'visit' ? 'session' : route.startsWith('analysis') ? 'capture' : route})`);
 		continue;
 	}
 	// The session may have been ended by something else meanwhile: check it still opens.
-	await page(cookie, path);
+	if (!path.startsWith('/api/')) await page(cookie, path);
 	const row = await drive(route, path, cookie);
 	rows.push(row);
 	console.log(
-		`${route.padEnd(10)} ${path.padEnd(18)} ${String(row.requests).padStart(7)} req  ${row.rps.toFixed(0).padStart(5)} req/s  p50 ${String(row.p50).padStart(5)} ms  p99 ${String(row.p99).padStart(5)} ms  non-2xx ${row.non2xx}  errors ${row.errors} (timeouts ${row.timeouts})  RSS ${mib(row.rssBefore)} → peak ${mib(row.rssPeak)} → ${mib(row.rssAfter)}`
+		`${route.padEnd(12)} ${path.padEnd(26)} ${String(row.requests).padStart(7)} req  ${row.rps.toFixed(0).padStart(5)} req/s  p50 ${String(row.p50).padStart(5)} ms  p99 ${String(row.p99).padStart(5)} ms  non-2xx ${row.non2xx}  errors ${row.errors} (timeouts ${row.timeouts})  RSS ${mib(row.rssBefore)} → peak ${mib(row.rssPeak)} → ${mib(row.rssAfter)}`
 	);
 }
 await sleep(settleS * 1000);
