@@ -7,6 +7,7 @@ import { confirmUpload, createCapture } from '../../src/lib/server/captures/serv
 import type { Scope } from '../../src/lib/server/auth/access';
 import { synthesiseResponse, TREATED, UNTREATED } from './room-response';
 import { DEMO_PROJECTS } from './scenario';
+import { seedDemoCalibration } from './seed-calibration';
 
 export async function seedDemoCaptures(k: Knex, organizationId: number): Promise<number> {
 	const acoustician = await k('users').where({ email: 'acoustician@fenwick-hale.test' }).first('id', 'email', 'name');
@@ -27,6 +28,8 @@ export async function seedDemoCaptures(k: Knex, organizationId: number): Promise
 	let count = 0;
 	for (const [si, session] of sessions.entries()) {
 		const condition = session.condition_label === 'untreated' ? UNTREATED : TREATED;
+		// Both visits were measured through the same calibrated chain, so their levels are dB SPL.
+		await seedDemoCalibration(scope, session.id);
 		const positions = await k('positions').where({ session_id: session.id }).orderBy('label');
 		for (const [pi, pos] of positions.entries()) {
 			const source = { x: Number(pos.source_x_m), y: Number(pos.source_y_m), z: Number(pos.source_z_m) };

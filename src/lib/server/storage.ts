@@ -133,6 +133,6 @@ export function storage(): Storage {
 }
 
 /** Object keys are random, so knowing one capture's key tells nothing about another's. */
-export function newObjectKey(prefix: 'captures' | 'references' | 'sweeps' | 'reports'): string {
+export function newObjectKey(prefix: 'captures' | 'references' | 'sweeps' | 'reports' | 'calibrators'): string {
 	return `${prefix}/${randomUUID()}.${prefix === 'reports' ? 'pdf' : 'wav'}`;
 }

@@ -23,6 +23,7 @@ import {
 	type CaptureForAnalysis
 } from '../queries/captures';
 import { takeAnalysedNotice } from '../queries/sessions';
+import { storeCaptureLevels } from '../calibrations/apply';
 
 export interface AnalyseCapturePayload {
 	captureId: number;
@@ -107,6 +108,7 @@ export async function handleAnalyseCapture(k: Knex, s: Storage, job: Job<Analyse
 	await transaction(async (trx) => {
 		await completeInTransaction(trx, job);
 		await replaceAnalysis(trx, ctx.id, result);
+		if (result) await storeCaptureLevels(trx, ctx, result);
 		await settleAnalysis(trx, ctx.id, failure);
 		await noticeIfSessionDone(trx, ctx.sessionId);
 	}, k);

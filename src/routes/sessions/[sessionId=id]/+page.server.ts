@@ -2,13 +2,15 @@ import { redirect } from '@sveltejs/kit';
 import { authorize } from '$lib/server/auth/access';
 import { formAction } from '$lib/server/forms';
 import { addPosition, visitPage } from '$lib/server/sessions/service';
+import { calibrationSummary } from '$lib/server/calibrations/service';
 import { positionSchema } from '$lib/schemas/projects';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load = (async ({ locals, params }) => {
 	const sessionId = Number(params.sessionId);
 	const scope = await authorize(locals, 'project:read', { sessionId });
-	return visitPage(scope, sessionId);
+	const page = await visitPage(scope, sessionId);
+	return { ...page, calibration: page.can.internal ? await calibrationSummary(sessionId) : null };
 }) satisfies PageServerLoad;
 
 export const actions = {
