@@ -94,47 +94,11 @@ function diffuseMeanPower(power: Float64Array, index: number, first: number, win
 	let from = Math.max(first, index - half);
 	const to = Math.min(power.length, from + window);
 	from = Math.max(first, to - window);
-	const values = power.slice(from, to);
+	const values = power.slice(from, to).sort();
 	if (values.length === 0) return 0;
 	const middle = values.length >> 1;
-	// The middle order statistics by selection (the same values a full sort puts there).
-	const upper = selectInPlace(values, middle);
-	let median = upper;
-	if (values.length % 2 === 0) {
-		let lower = values[0];
-		for (let i = 1; i < middle; i++) if (values[i] > lower) lower = values[i];
-		median = 0.5 * (lower + upper);
-	}
+	const median = values.length % 2 ? values[middle] : 0.5 * (values[middle - 1] + values[middle]);
 	return median / Math.LN2;
-}
-
-/**
- * Hoare's selection (FIND, Comm. ACM 4(7):321, 1961): reorders `values` so that values[k] is the
- * one a sort would put there, everything before it ≤ it and everything after it ≥ it; returns it.
- */
-function selectInPlace(values: Float64Array, k: number): number {
-	let left = 0;
-	let right = values.length - 1;
-	while (right > left) {
-		const pivot = values[(left + right) >> 1];
-		let i = left;
-		let j = right;
-		while (i <= j) {
-			while (values[i] < pivot) i++;
-			while (values[j] > pivot) j--;
-			if (i <= j) {
-				const t = values[i];
-				values[i] = values[j];
-				values[j] = t;
-				i++;
-				j--;
-			}
-		}
-		if (k <= j) right = j;
-		else if (k >= i) left = i;
-		else break;
-	}
-	return values[k];
 }
 
 /** Extra samples kept around the analysed span so the envelope is not distorted at its edges. */
