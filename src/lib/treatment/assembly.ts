@@ -28,6 +28,8 @@ export interface AssemblyStep {
 	faceOut: string;
 	/** Where the glue lines and fasteners go. */
 	joints: string;
+	/** Depths to set the well bottoms of this step at, front edge to the bottom's face, mm (shown in the page's unit). */
+	depthsMm: number[];
 }
 
 const round1 = (mm: number) => Math.round(mm * 10) / 10;
@@ -68,7 +70,8 @@ export function diffuserAssembly(sheet: BuildSheet): AssemblyStep[] {
 			pieces,
 			joins: [],
 			faceOut: 'Mounting pieces are hidden behind the panel.',
-			joints: 'Screw, do not glue, wherever the panel must come off the wall again.'
+			joints: 'Screw, do not glue, wherever the panel must come off the wall again.',
+			depthsMm: []
 		});
 	}
 	return steps;
@@ -106,7 +109,8 @@ function lowWasteSteps(sheet: BuildSheet, g: DiffuserGeometry): AssemblyStep[] {
 			pieces,
 			joins: [],
 			faceOut: "Each well bottom's finished face toward the front, into its well; fins are finished on both faces.",
-			joints: `Glue each well bottom's long edges to the fins on either side, its front face ${wells.map((n) => formatLength(g.wells[n].depthMm, 'mm')).join(', ')} behind the front edge; check square before the glue sets.`
+			joints: "Glue each well bottom's long edges to the fins on either side, its front face at its well's depth behind the front edge; check square before the glue sets.",
+			depthsMm: wells.map((n) => g.wells[n].depthMm)
 		});
 	});
 	for (let j = 1; j < groups.length; j++) {
@@ -117,7 +121,8 @@ function lowWasteSteps(sheet: BuildSheet, g: DiffuserGeometry): AssemblyStep[] {
 			pieces: [],
 			joins: [letter(j - 1), letter(j)],
 			faceOut: 'Fronts flush: all sub-assemblies face the same way.',
-			joints: `Sub-assembly ${letter(j)}'s first fin closes well ${closes + 1}: glue along the edge of that well's bottom and along the fin.`
+			joints: `Sub-assembly ${letter(j)}'s first fin closes well ${closes + 1}: glue along the edge of that well's bottom and along the fin.`,
+			depthsMm: []
 		});
 	}
 	const all = [...g.fins.map((f) => `F${f.i}`), ...g.wells.map((w) => `B${w.n}`)];
@@ -131,7 +136,8 @@ function lowWasteSteps(sheet: BuildSheet, g: DiffuserGeometry): AssemblyStep[] {
 		],
 		joins: [],
 		faceOut: 'The finished face of each cap outward: up on the top cap, down on the bottom cap.',
-		joints: 'Glue the cap to the end of every fin and well bottom; fasten through the cap into each fin.'
+		joints: 'Glue the cap to the end of every fin and well bottom; fasten through the cap into each fin.',
+		depthsMm: []
 	});
 	return steps;
 }
@@ -141,7 +147,7 @@ function fullDepthSteps(sheet: BuildSheet, g: DiffuserGeometry): AssemblyStep[] 
 	const back = partNamed(sheet, 'back');
 	const steps: AssemblyStep[] = [];
 	const step = (title: string, pieces: AssemblyPiece[], faceOut: string, joints: string) => {
-		if (pieces.length) steps.push({ n: steps.length + 1, title, pieces, joins: [], faceOut, joints });
+		if (pieces.length) steps.push({ n: steps.length + 1, title, pieces, joins: [], faceOut, joints, depthsMm: [] });
 	};
 	step('Back on the bench', [{ id: 'P', part: back, restsOn: [] }], 'The back is hidden: either face.', 'Mark the fin positions on it, one every well width plus fin.');
 	step(
