@@ -1,13 +1,12 @@
 // Cumulative spectral decay: how the spectrum of the remaining impulse response falls with
 // time, one slice per start time, for a waterfall chart of the low-frequency decay.
 import { AnalysisInputError } from './errors';
-import { realFftPlan } from './fft';
 import {
 	applyHalfHannFadeIn,
 	applyHalfHannFadeOut,
 	logSpacedCurve,
 	nextPowerOfTwo,
-	POWER_FLOOR_DB,
+	PowerSpectrumPlan,
 	smoothedLogSpacedCurves
 } from './response';
 
@@ -36,81 +35,6 @@ export const SPECTRAL_DECAY_FLOOR_DB = -80;
 /** Smoothing applied so the waterfall stays readable. */
 const SLICE_SMOOTHING = 6;
 
-const POWER_FLOOR = 10 ** (POWER_FLOOR_DB / 10);
-
-/**
- * 10·lg|X(k)|² (floored at POWER_FLOOR_DB) of the first binCount bins of each slice — window[offset…]
- * with a half-Hann rise over its first fadeIn samples, zero-padded to fftSize — for non-decreasing
- * offsets. The last slice takes one FFT; each earlier one is the next one plus the DFT, at those
- * bins only, of what differs between the two (its rise and the samples up to the end of the next
- * one's rise): by linearity the same spectrum, for about half an FFT's work. Phases are taken re
- * the window's start, which leaves every power unchanged; the twiddles come from an exact start
- * phase and a rotation over at most a few thousand samples, so round-off stays near 1e-13.
- */
-function slicePowersDb(window: Float64Array, offsets: number[], fadeIn: number, fftSize: number, binCount: number): Float64Array[] {
-	const rise = new Float64Array(fadeIn).fill(1);
-	applyHalfHannFadeIn(rise, fadeIn);
-	const sliceValue = (offset: number, n: number) => (n < offset ? 0 : n < offset + fadeIn ? window[n] * rise[n - offset] : window[n]);
-	const re = new Float64Array(binCount);
-	const im = new Float64Array(binCount);
-	const powers: Float64Array[] = new Array(offsets.length);
-	const toDb = () => {
-		const power = new Float64Array(binCount);
-		for (let k = 0; k < binCount; k++) power[k] = 10 * Math.log10(Math.max(re[k] * re[k] + im[k] * im[k], POWER_FLOOR));
-		return power;
-	};
-	const phase = (k: number, n: number) => (2 * Math.PI * ((k * n) % fftSize)) / fftSize;
-
-	const last = offsets.length - 1;
-	const tail = window.slice(offsets[last]);
-	applyHalfHannFadeIn(tail, fadeIn);
-	const spectrum = new Float64Array(fftSize + 2);
-	realFftPlan(fftSize).forward(tail, spectrum);
-	for (let k = 0; k < binCount; k++) {
-		// × e^(−j2πk·offset/N): from the slice's own start to the window's.
-		const angle = phase(k, offsets[last]);
-		const c = Math.cos(angle);
-		const s = Math.sin(angle);
-		re[k] = spectrum[2 * k] * c + spectrum[2 * k + 1] * s;
-		im[k] = spectrum[2 * k + 1] * c - spectrum[2 * k] * s;
-	}
-	powers[last] = toDb();
-
-	const difference = new Float64Array(Math.max(0, offsets[last] - offsets[0]) + fadeIn);
-	for (let slice = last - 1; slice >= 0; slice--) {
-		const from = offsets[slice];
-		const to = offsets[slice + 1] + fadeIn;
-		for (let n = from; n < to; n++) difference[n - from] = sliceValue(from, n) - sliceValue(offsets[slice + 1], n);
-		addDft(difference, to - from, from, fftSize, re, im);
-		powers[slice] = toDb();
-	}
-	return powers;
-}
-
-/** Adds Σ d[i]·e^(−j2πk(start + i)/N), i < length, to (re, im)[k] for every k < re.length. */
-function addDft(d: Float64Array, length: number, start: number, fftSize: number, re: Float64Array, im: Float64Array): void {
-	for (let k = 0; k < re.length; k++) {
-		const step = (2 * Math.PI * k) / fftSize;
-		const wr = Math.cos(step);
-		const wi = -Math.sin(step);
-		const first = (2 * Math.PI * ((k * start) % fftSize)) / fftSize;
-		let pr = Math.cos(first);
-		let pi = -Math.sin(first);
-		let sumRe = 0;
-		let sumIm = 0;
-		for (let i = 0; i < length; i++) {
-			const value = d[i];
-			sumRe += value * pr;
-			sumIm += value * pi;
-			const next = pr * wr - pi * wi;
-			pi = pr * wi + pi * wr;
-			pr = next;
-		}
-		re[k] += sumRe;
-		im[k] += sumIm;
-	}
-}
-
 function requirePositive(name: string, value: number): void {
 	if (!Number.isFinite(value) || value <= 0) throw new AnalysisInputError('invalid_option', `${name} must be a finite number > 0, got ${value}`);
 }
@@ -120,8 +44,7 @@ function requirePositive(name: string, value: number): void {
  * measurements", JAES 30(1), 1982; from memory): slice s is the power spectrum of the IR from
  * startIndex + t_s to a common fixed end, i.e. the response truncated on the left, with a short
  * half-Hann rise at its start and a half-Hann fade over the last 10 % before the common end.
- * Every slice uses the same FFT size (spectra computed by slicePowersDb), is smoothed to 1/6
- * octave and sampled log-spaced.
+ * Every slice uses the same FFT size, is smoothed to 1/6 octave and sampled log-spaced.
  */
 export function cumulativeSpectralDecay(
 	ir: Float64Array,
@@ -172,23 +95,30 @@ export function cumulativeSpectralDecay(
 	const window = ir.slice(startIndex, end);
 	applyHalfHannFadeOut(window, Math.floor(0.1 * windowLength));
 	// At least 1 Hz bins, so 1/6-octave smoothing still averages several bins at 20 Hz.
-	const fftSize = nextPowerOfTwo(Math.max(windowLength, sampleRate));
+	const plan = new PowerSpectrumPlan(nextPowerOfTwo(Math.max(windowLength, sampleRate)));
 	// Bins needed: up to fMax plus the upper half of its smoothing window.
-	const binCount = Math.min(fftSize / 2 + 1, Math.ceil((fMaxHz * 2 ** (1 / (2 * SLICE_SMOOTHING)) * fftSize) / sampleRate) + 2);
-	const freqHz = new Float64Array(binCount);
-	for (let k = 0; k < binCount; k++) freqHz[k] = (k * sampleRate) / fftSize;
-	const offsets = Array.from({ length: slices }, (_, s) => Math.round((s * (lastSliceStart - startIndex)) / (slices - 1)));
-	const powers = slicePowersDb(window, offsets, fadeIn, fftSize, binCount);
+	const binCount = Math.min(
+		plan.binCount,
+		Math.ceil((fMaxHz * 2 ** (1 / (2 * SLICE_SMOOTHING)) * plan.fftSize) / sampleRate) + 2
+	);
+	const freqHz = plan.frequencies(sampleRate, binCount);
+	const powerDb = new Float64Array(binCount);
 
 	const timesMs: number[] = [];
 	const curves: number[][] = [];
+	const buffer = new Float64Array(windowLength);
 	for (let s = 0; s < slices; s++) {
+		const offset = Math.round((s * (lastSliceStart - startIndex)) / (slices - 1));
+		const slice = buffer.subarray(0, windowLength - offset);
+		slice.set(window.subarray(offset));
+		applyHalfHannFadeIn(slice, fadeIn);
+		plan.powerDb(slice, binCount, powerDb);
 		// Smoothed only where the log-spaced points read it: the same numbers as smoothing every bin.
-		const [curve] = smoothedLogSpacedCurves(freqHz, powers[s], [SLICE_SMOOTHING], { fMinHz, fMaxHz, pointsPerOctave });
-		timesMs.push(Math.round((1e6 * offsets[s]) / sampleRate) / 1000);
+		const [curve] = smoothedLogSpacedCurves(freqHz, powerDb, [SLICE_SMOOTHING], { fMinHz, fMaxHz, pointsPerOctave });
+		timesMs.push(Math.round((1e6 * offset) / sampleRate) / 1000);
 		curves.push(curve);
 	}
-	const grid = logSpacedCurve(freqHz, powers[0], { fMinHz, fMaxHz, pointsPerOctave }).freqHz;
+	const grid = logSpacedCurve(freqHz, powerDb, { fMinHz, fMaxHz, pointsPerOctave }).freqHz;
 	const reference = Math.max(...curves[0]);
 	const levelsDb = curves.map((curve) =>
 		curve.map((db) => Math.round(Math.max(SPECTRAL_DECAY_FLOOR_DB, db - reference) * 100) / 100)
