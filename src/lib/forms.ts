@@ -4,6 +4,15 @@
 
 export const FORM_ID_FIELD = 'formId';
 
+/** The hidden one-time key of a creating form (`FormKey.svelte`): the server acts on it once. */
+export const FORM_KEY_FIELD = 'formKey';
+
+/** 128 random bits as 32 hex digits (`crypto.randomUUID` needs a secure context; this does not). */
+export function newFormKey(): string {
+	const bytes = crypto.getRandomValues(new Uint8Array(16));
+	return Array.from(bytes, (b) => b.toString(16).padStart(2, '0')).join('');
+}
+
 export type FieldErrors = Record<string, string>;
 
 export interface FormFailure {

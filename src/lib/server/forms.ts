@@ -2,13 +2,14 @@
 // carrying the form's id, its field errors and the values to show again.
 import { fail, type ActionFailure } from '@sveltejs/kit';
 import type { z } from 'zod';
-import { FORM_ID_FIELD, type FieldErrors, type FormFailure } from '../forms';
+import { FORM_ID_FIELD, FORM_KEY_FIELD, type FieldErrors, type FormFailure } from '../forms';
+import { FORM_KEY_PATTERN, submitOnce } from './form-once';
 import { Problem } from './problem';
 import { problemFromDbError } from './db-errors';
 
 export type { FieldErrors, FormFailure };
 
-const SECRET_FIELDS = /password|confirm|token/i;
+const SECRET_FIELDS = /password|confirm|token|formKey/i;
 
 /** Form values safe to echo back to the page (never passwords or tokens). */
 function echo(formData: FormData): Record<string, string> {
@@ -43,7 +44,7 @@ export function parseForm<S extends z.ZodType>(
 	schema: S,
 	formData: FormData
 ): { ok: true; data: z.infer<S> } | { ok: false; failure: ActionFailure<FormFailure> } {
-	const raw = Object.fromEntries([...formData].filter(([k, v]) => typeof v === 'string' && k !== FORM_ID_FIELD));
+	const raw = Object.fromEntries([...formData].filter(([k, v]) => typeof v === 'string' && k !== FORM_ID_FIELD && k !== FORM_KEY_FIELD));
 	const parsed = schema.safeParse(raw);
 	if (parsed.success) return { ok: true, data: parsed.data };
 	return { ok: false, failure: formFail(400, formData, undefined, fieldErrors(parsed.error)) };
@@ -62,6 +63,7 @@ export function problemToFailure(e: unknown, formData: FormData): ActionFailure<
  * The body of a form action after `authorize()`: read and parse the form, run the service with
  * the parsed input, and answer with its result or the refusal. A `redirect()` inside `work`
  * passes through. A schema that depends on the form (its length unit) is given as a function of it.
+ * A form carrying a one-time key (`FormKey.svelte`) is acted on once: a repeat gets the first answer.
  *
  *   return formAction(request, roomSchema, (input) => rooms.update(scope, roomId, input));
  */
@@ -73,8 +75,12 @@ export async function formAction<S extends z.ZodType, R>(
 	const formData = await request.formData();
 	const parsed = parseForm(typeof schema === 'function' ? schema(formData) : schema, formData);
 	if (!parsed.ok) return parsed.failure;
+	const formKey = formData.get(FORM_KEY_FIELD);
+	const run = () => work(parsed.data, formData);
 	try {
-		return await work(parsed.data, formData);
+		if (typeof formKey !== 'string' || !FORM_KEY_PATTERN.test(formKey)) return await run();
+		const url = new URL(request.url);
+		return await submitOnce(formKey, url.pathname + url.search, run);
 	} catch (e) {
 		return problemToFailure(e, formData);
 	}
