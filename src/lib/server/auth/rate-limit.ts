@@ -113,10 +113,17 @@ const IDLE_MS = 2 * 24 * HOUR;
  */
 export async function takeAttempts(k: Knex, takes: Take[]): Promise<Answer> {
 	const keys = takes.map((t) => bucketKey(t.name, t.who));
-	await ensureBuckets(k, keys);
+	// Rows are made first, in a transaction of their own: inserting and then locking an existing
+	// row in one transaction lets two requests deadlock on it.
+	await transaction((trx) => ensureBuckets(trx, keys), k, 5);
 	const verdict = await transaction(async (trx) => {
 		const now = await databaseNow(trx);
-		const states = await lockBuckets(trx, keys);
+		let states = await lockBuckets(trx, keys);
+		if (states.size < keys.length) {
+			// A bucket forgotten in between (a reset, the idle sweep): made again, under this lock.
+			await ensureBuckets(trx, keys.filter((key) => !states.has(key)));
+			states = await lockBuckets(trx, keys);
+		}
 		const results = takes.map((t, i) => ({ key: keys[i], ...takeAttempt(states.get(keys[i])!, LIMITS[t.name], now) }));
 		const refused = results.filter((r) => !r.verdict.allowed);
 		// Refused: only a lockout that starts now is written; allowed: every bucket is charged.

@@ -11,10 +11,10 @@ interface BucketRow {
 	blocked_until: Date | null;
 }
 
-/** Make sure each bucket has a row; run outside a transaction, so no lock outlives it. */
+/** Make sure each bucket has a row (in key order, as they are locked). */
 export async function ensureBuckets(k: Knex, keys: string[]): Promise<void> {
 	await k('rate_limits')
-		.insert(keys.map((bucket) => ({ bucket })))
+		.insert([...keys].sort().map((bucket) => ({ bucket })))
 		.onConflict('bucket')
 		.ignore();
 }
