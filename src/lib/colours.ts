@@ -16,6 +16,7 @@ export const SERIES_HUES = {
 	/** A third visit beside before and after (measured after treatment, against the prediction). */
 	slate: '#2f6690',
 	olive: '#6b7a2a',
+	plum: '#8e3b75',
 	/** Lighter partners of before and after, for a second metric of the same two visits. */
 	beforeLight: '#c9a98c',
 	afterLight: '#5fb3a9'

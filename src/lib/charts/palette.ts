@@ -25,15 +25,16 @@ export type SeriesTone = 'before' | 'after' | 'neutral' | (string & {});
 
 /**
  * Distinct hues for overlays of many positions (our own set): the palette's inks and accents
- * plus a slate blue and an olive, all dark enough to read as thin lines on paper.
+ * plus a slate blue, an olive and a plum, all dark enough to read as thin lines on paper. The
+ * before and after tones are not in it: an average or a visit drawn in them stays unmistakable
+ * among the positions.
  */
 export const OVERLAY_CYCLE = [
 	colours.ink.soft,
 	colours.target.DEFAULT,
 	colours.caution.DEFAULT,
-	colours.after.DEFAULT,
 	SERIES_HUES.slate,
-	colours.before.DEFAULT,
+	SERIES_HUES.plum,
 	SERIES_HUES.olive,
 	colours.alarm.DEFAULT
 ] as const;
