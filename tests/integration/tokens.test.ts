@@ -85,7 +85,13 @@ describe('password reset tokens', () => {
 	it('expire', async () => {
 		const u = await makeUser(k, orgId, 'consultant');
 		const token = await createPasswordReset(k, u.id, new Date(Date.now() - (RESET_HOURS + 1) * 3600_000));
-		expect((await new Client().get(`/password/reset/${token}`, { accept: 'text/html' })).status).toBe(410);
+		const res = await new Client().get(`/password/reset/${token}`, { accept: 'text/html' });
+		expect(res.status).toBe(410);
+		// Signed out, the page offers the ways on that work: a new link, and signing in.
+		const html = await res.text();
+		expect(html).toContain('href="/password/forgot"');
+		expect(html).toContain('href="/signin"');
+		expect(html).not.toContain('Back to projects');
 	});
 
 	it('are queued as mail from the forgot form without revealing unknown addresses', async () => {
