@@ -2,7 +2,7 @@
 // runs. The RIFF chunk list is walked with ranged reads (from the object store, a file or bytes
 // in memory), so chunks of any size before `fmt ` and `data` (a long LIST of tags, a JUNK pad)
 // cost one small read each. The full decode (and every sample check) happens in the analysis job.
-import { open } from 'node:fs/promises';
+// Pure: the browser reads a picked file's header with it too (a File is a RangeSource).
 
 export interface WavHeader {
 	format: 'pcm' | 'float';
@@ -50,21 +50,6 @@ const printableId = (id: string) => (/^[\x20-\x7e]{4}$/.test(id) ? `"${id}"` : `
 /** A source over bytes already in memory. */
 export function bytesSource(bytes: Uint8Array, size = bytes.length): RangeSource {
 	return { size, read: async (offset, length) => bytes.subarray(offset, Math.min(bytes.length, offset + length)) };
-}
-
-/** A source over a file on disk; `close()` when done. */
-export async function fileSource(path: string): Promise<RangeSource & { close(): Promise<void> }> {
-	const handle = await open(path, 'r');
-	const { size } = await handle.stat();
-	return {
-		size,
-		async read(offset, length) {
-			const buffer = new Uint8Array(Math.max(0, Math.min(length, size - offset)));
-			const { bytesRead } = await handle.read(buffer, 0, buffer.length, offset);
-			return buffer.subarray(0, bytesRead);
-		},
-		close: () => handle.close()
-	};
 }
 
 /** A window of the file: `bytes` start at `offset`. */

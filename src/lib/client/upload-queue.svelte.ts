@@ -2,6 +2,8 @@
 // progress and state. The steps per file: hash → announce (server validates, creates the
 // capture, presigns) → PUT to storage with progress → confirm (server checks, queues).
 import { apiFetch, ApiFailure, putWithProgress, sha256Hex } from './api';
+import { readWavHeader, WavHeaderError, type RangeSource } from '$lib/captures/wav-header';
+import { sweepMismatch, type PlayedSweep } from '$lib/captures/sweep-fit';
 
 export type ItemState = 'ready' | 'hashing' | 'announcing' | 'uploading' | 'confirming' | 'done' | 'duplicate' | 'error';
 
@@ -16,6 +18,23 @@ export interface UploadItem {
 	state: ItemState;
 	progress: number;
 	message: string | null;
+	/** The recording's length from its header, once read in the browser; null if unknown. */
+	recordingS: number | null;
+}
+
+/** A picked file read by ranges, like a stored object on the server. */
+function fileSource(file: File): RangeSource {
+	return { size: file.size, read: async (offset, length) => new Uint8Array(await file.slice(offset, offset + length).arrayBuffer()) };
+}
+
+/** The played sweeps a visit's uploads can name, with their lengths. */
+export type SweepChoice = PlayedSweep & { id: number };
+
+/** Why a recorded sweep cannot be of its chosen test signal (known from the file's header), or null. */
+export function itemSweepMismatch(item: UploadItem, sweeps: readonly SweepChoice[]): string | null {
+	if (item.kind !== 'sweep' || item.recordingS === null || !item.sweep.startsWith('id:')) return null;
+	const sweep = sweeps.find((s) => s.id === Number(item.sweep.slice(3)));
+	return sweep ? sweepMismatch(item.recordingS, sweep) : null;
 }
 
 interface Announced {
@@ -38,11 +57,12 @@ export class UploadQueue {
 
 	constructor(
 		private readonly sessionId: number,
-		private readonly defaults: () => { positions: { id: number; label: string }[]; sweepIds: number[] }
+		private readonly defaults: () => { positions: { id: number; label: string }[]; sweeps: SweepChoice[] }
 	) {}
 
 	add(files: FileList | File[]): void {
-		const { positions, sweepIds } = this.defaults();
+		const { positions, sweeps } = this.defaults();
+		const sweepIds = sweeps.map((s) => s.id);
 		// Files without a position in their name get the next free labels, one each.
 		const taken = new Set([...positions.map((p) => p.label), ...this.items.map((i) => i.position.replace(/^new:/, ''))]);
 		const nextFree = () => {
@@ -55,8 +75,9 @@ export class UploadQueue {
 			const guessed = guessPositionLabel(file.name);
 			const existing = positions.find((p) => p.label === guessed);
 			const looksLikeSweep = /sweep|sine|ess/i.test(file.name) && sweepIds.length > 0;
+			const key = nextKey++;
 			this.items.push({
-				key: nextKey++,
+				key,
 				file,
 				position: existing ? `id:${existing.id}` : `new:${guessed ?? nextFree()}`,
 				kind: looksLikeSweep ? 'sweep' : 'impulse',
@@ -65,8 +86,22 @@ export class UploadQueue {
 				channel: 0,
 				state: 'ready',
 				progress: 0,
-				message: file.name.toLowerCase().endsWith('.wav') ? null : 'Only WAV files can be analysed.'
+				message: file.name.toLowerCase().endsWith('.wav') ? null : 'Only WAV files can be analysed.',
+				recordingS: null
 			});
+			void this.readLength(key, file);
+		}
+	}
+
+	/** Read the file's header in the browser: its length for the sweep check, or why it is no WAV. */
+	private async readLength(key: number, file: File): Promise<void> {
+		try {
+			const header = await readWavHeader(fileSource(file), { maxDurationS: Number.POSITIVE_INFINITY });
+			const item = this.items.find((i) => i.key === key);
+			if (item) item.recordingS = header.durationS;
+		} catch (e) {
+			const item = this.items.find((i) => i.key === key);
+			if (item && e instanceof WavHeaderError && item.state === 'ready') item.message = e.message;
 		}
 	}
 
@@ -85,7 +120,13 @@ export class UploadQueue {
 	/** Upload every waiting file, two at a time; `onSettled` runs after each confirmed one. */
 	async uploadAll(onSettled: () => void): Promise<void> {
 		this.busy = true;
-		const queue = [...this.waiting];
+		const { sweeps } = this.defaults();
+		// A recording that cannot be of its chosen sweep stays here with the reason, unsent.
+		const queue = this.waiting.filter((item) => {
+			const mismatch = itemSweepMismatch(item, sweeps);
+			if (mismatch) Object.assign(item, { state: 'error', message: mismatch });
+			return !mismatch;
+		});
 		const lane = async () => {
 			for (let item = queue.shift(); item; item = queue.shift()) {
 				await this.uploadOne(item);

@@ -3,3 +3,4 @@ export type { CaptureView } from './captures';
 export type { ProjectRow } from './projects';
 export type { RoomRow } from './rooms';
 export type { SessionRow } from './sessions';
+export type { Point, PositionRow } from './positions';

@@ -1,20 +1,7 @@
 import type { Knex } from 'knex';
+import type { Point, PositionRow } from '../../types/positions';
 
-export interface Point {
-	x: number;
-	y: number;
-	z: number;
-}
-
-export interface PositionRow {
-	id: number;
-	sessionId: number;
-	label: string;
-	sourceLabel: string | null;
-	micLabel: string | null;
-	source: Point | null;
-	mic: Point | null;
-}
+export type { Point, PositionRow };
 
 /** The loudspeaker or microphone point of a row with `source_x_m`… columns; null unless complete. */
 export function pointOf(r: Record<string, unknown>, prefix: 'source' | 'mic'): Point | null {
@@ -86,6 +73,29 @@ export async function createPosition(k: Knex, sessionId: number, p: PositionInpu
 		mic_z_m: p.micZ
 	});
 	return id;
+}
+
+export async function updatePosition(k: Knex, id: number, p: PositionInput): Promise<void> {
+	await k('positions').where({ id }).update({
+		label: p.label,
+		source_label: p.sourceLabel,
+		mic_label: p.micLabel,
+		source_x_m: p.sourceX,
+		source_y_m: p.sourceY,
+		source_z_m: p.sourceZ,
+		mic_x_m: p.micX,
+		mic_y_m: p.micY,
+		mic_z_m: p.micZ
+	});
+}
+
+/** Remove a position that holds no capture, locking it so an upload cannot land in it meanwhile. */
+export async function deleteEmptyPosition(trx: Knex.Transaction, id: number): Promise<'deleted' | 'has-captures'> {
+	await trx('positions').where({ id }).forUpdate().first('id');
+	const held = await trx('captures').where({ position_id: id }).first('id');
+	if (held) return 'has-captures';
+	await trx('positions').where({ id }).delete();
+	return 'deleted';
 }
 
 /** Coordinates are optional, but a given point must be complete and inside the room. */

@@ -2,10 +2,10 @@
 import { audit } from '../audit';
 import { db } from '../db';
 import { mapDbErrors } from '../db-errors';
-import { Problem } from '../problem';
+import { conflict, notFound, Problem } from '../problem';
 import { transaction } from '../transaction';
 import type { Scope } from '../auth/access';
-import { checkPositionInRoom, createPosition, listPositions, type PositionInput } from '../queries/positions';
+import { checkPositionInRoom, createPosition, deleteEmptyPosition, isPositionOfSession, listPositions, updatePosition, type PositionInput } from '../queries/positions';
 import { getProject } from '../queries/projects';
 import { listProblemBands } from '../queries/reviews';
 import { getRoom } from '../queries/rooms';
@@ -34,7 +34,7 @@ export async function visitPage(scope: Scope, sessionId: number) {
 		captures,
 		summary,
 		problemBands,
-		sweeps: sweeps.map((s) => ({ id: s.id, name: s.name })),
+		sweeps: sweeps.map((s) => ({ id: s.id, name: s.name, durationS: s.durationS })),
 		session,
 		room: { id: room.id, name: room.name, lengthM: room.lengthM, widthM: room.widthM, heightM: room.heightM },
 		project: { id: project!.id, name: project!.name },
@@ -48,15 +48,44 @@ export function visitAverage(sessionId: number) {
 	return loadSessionSummary(db(), sessionId);
 }
 
-/** A new measurement position of the visit; given coordinates must lie inside the room. */
-export async function addPosition(scope: Scope, sessionId: number, input: PositionInput): Promise<number> {
+const DUPLICATE_LABEL = { duplicate: 'This visit already has a position with that label.', field: 'label' };
+
+async function checkPlace(sessionId: number, input: PositionInput): Promise<void> {
 	const k = db();
 	const session = (await getSession(k, sessionId))!;
 	const placeErrors = checkPositionInRoom(input, (await getRoom(k, session.roomId))!);
 	if (Object.keys(placeErrors).length) throw new Problem(400, 'Check the coordinates.', { details: { errors: placeErrors } });
+}
+
+/** A new measurement position of the visit; given coordinates must lie inside the room. */
+export async function addPosition(scope: Scope, sessionId: number, input: PositionInput): Promise<number> {
+	await checkPlace(sessionId, input);
 	return transaction(async (trx) => {
-		const id = await mapDbErrors(createPosition(trx, sessionId, input), { duplicate: 'This visit already has a position with that label.', field: 'label' });
+		const id = await mapDbErrors(createPosition(trx, sessionId, input), DUPLICATE_LABEL);
 		await audit(trx, scope, 'position.created', 'position', id);
 		return id;
+	});
+}
+
+const NO_SUCH_POSITION = 'This visit has no such position.';
+
+/** Rename or move one of the visit's positions (its captures stay with it); the same rules as a new one. */
+export async function editPosition(scope: Scope, sessionId: number, positionId: number, input: PositionInput): Promise<void> {
+	const before = (await listPositions(db(), sessionId)).find((p) => p.id === positionId);
+	if (!before) throw notFound(NO_SUCH_POSITION);
+	await checkPlace(sessionId, input);
+	await transaction(async (trx) => {
+		await mapDbErrors(updatePosition(trx, positionId, input), DUPLICATE_LABEL);
+		await audit(trx, scope, 'position.updated', 'position', positionId, before.label === input.label ? undefined : { from: before.label, to: input.label });
+	});
+}
+
+/** Remove a position that holds no capture (captures are removed one by one, with their files). */
+export async function removePosition(scope: Scope, sessionId: number, positionId: number): Promise<void> {
+	if (!(await isPositionOfSession(db(), sessionId, positionId))) throw notFound(NO_SUCH_POSITION);
+	await transaction(async (trx) => {
+		if ((await deleteEmptyPosition(trx, positionId)) === 'has-captures')
+			throw conflict('This position still holds captures: remove them first, or move the position instead.', { code: 'position_in_use' });
+		await audit(trx, scope, 'position.deleted', 'position', positionId);
 	});
 }

@@ -1,10 +1,15 @@
 import { redirect } from '@sveltejs/kit';
+import { z } from 'zod';
 import { authorize } from '$lib/server/auth/access';
 import { formAction } from '$lib/server/forms';
-import { addPosition, visitPage } from '$lib/server/sessions/service';
+import { addPosition, editPosition, removePosition, visitPage } from '$lib/server/sessions/service';
 import { calibrationSummary } from '$lib/server/calibrations/service';
 import { positionSchema } from '$lib/schemas/projects';
 import type { Actions, PageServerLoad } from './$types';
+
+const positionId = z.coerce.number({ error: 'Say which position.' }).int().positive({ error: 'Say which position.' });
+const editPositionSchema = positionSchema.extend({ positionId });
+const removePositionSchema = z.object({ positionId });
 
 export const load = (async ({ locals, params }) => {
 	const sessionId = Number(params.sessionId);
@@ -20,6 +25,24 @@ export const actions = {
 		return formAction(request, positionSchema, async (input) => {
 			await addPosition(scope, sessionId, input);
 			redirect(303, `/sessions/${sessionId}`);
+		});
+	},
+
+	updatePosition: async ({ locals, params, request }) => {
+		const sessionId = Number(params.sessionId);
+		const scope = await authorize(locals, 'project:edit', { sessionId });
+		return formAction(request, editPositionSchema, async ({ positionId, ...input }) => {
+			await editPosition(scope, sessionId, positionId, input);
+			return { positionUpdated: positionId };
+		});
+	},
+
+	deletePosition: async ({ locals, params, request }) => {
+		const sessionId = Number(params.sessionId);
+		const scope = await authorize(locals, 'project:edit', { sessionId });
+		return formAction(request, removePositionSchema, async ({ positionId }) => {
+			await removePosition(scope, sessionId, positionId);
+			return { positionRemoved: true };
 		});
 	}
 } satisfies Actions;
