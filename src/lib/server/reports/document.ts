@@ -3,6 +3,13 @@
 import type { PlanReport } from '../../plans/report';
 import type { ComparisonModel, ProblemBandView } from '../../results/types';
 
+/** The engine's quality notes on one capture of the comparison, when they are shown. */
+export interface ReportQualityNote {
+	condition: string;
+	positionLabel: string;
+	messages: string[];
+}
+
 /** A plan in the report: what is planned and, optionally, the predicted times per band. */
 export type ReportPlan = Pick<PlanReport, 'title' | 'lines'> & Partial<Pick<PlanReport, 'bands' | 'method' | 'cost'>>;
 
@@ -19,6 +26,8 @@ export interface ReportDocument {
 	plan?: ReportPlan | null;
 	/** Where the target comes from, named in the method (default ITU-R BS.1116-3). */
 	targetBasis?: string;
+	/** Quality notes per capture: always for staff, for a client only where the consultant shares them. */
+	qualityNotes?: ReportQualityNote[];
 }
 
 /** The document with its defaults filled in, as the sections draw it. */

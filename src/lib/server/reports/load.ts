@@ -15,7 +15,8 @@ export async function loadReportDocument(scope: Scope, comparisonId: number): Pr
 			comparison: page.model,
 			advice: page.comparison.advice,
 			problemBands: page.problemBands,
-			plan: page.plan
+			plan: page.plan,
+			qualityNotes: page.qualityNotes
 		},
 		fileName: `ringdown-report-${page.room.name.replace(/[^\w-]+/g, '-').toLowerCase()}.pdf`
 	};

@@ -74,7 +74,8 @@ export async function renderReportPdf(report: ReportDocument): Promise<Uint8Arra
 		// Numbered low to high, the same in the chart and the table.
 		problemBands: [...report.problemBands].sort((a, b) => a.fLoHz - b.fLoHz || a.fHiHz - b.fHiHz),
 		plan: report.plan ?? null,
-		targetBasis: report.targetBasis ?? DEFAULT_TARGET_BASIS
+		targetBasis: report.targetBasis ?? DEFAULT_TARGET_BASIS,
+		qualityNotes: report.qualityNotes ?? []
 	});
 	stampFooters(pen, report.comparison.room.name);
 	doc.end();

@@ -18,7 +18,7 @@ import type { DifferenceVerdict } from '../../results/spread';
 import { reverberationJudgement } from '../../results/statistics';
 import { formatSpread, GRADE_NAMES, gradeHeadline, gradeSentences } from '../../results/statistics-text';
 import { sameBand } from '../../analysis/targets';
-import type { ReportContent, ReportPlan } from './document';
+import type { ReportContent, ReportPlan, ReportQualityNote } from './document';
 import { drawBandChart } from './band-chart';
 import { drawBullets, drawFactPanel, drawHeading, drawParagraphs } from './blocks';
 import { formatPublishedDate, splitParagraphs, verdictWords } from './wording';
@@ -299,6 +299,17 @@ export function drawProblemBands(pen: ReportPen, problemBands: readonly ProblemB
 	);
 }
 
+/** The engine's notes on the measurements behind the numbers, per visit and position. */
+export function drawQualityNotes(pen: ReportPen, notes: readonly ReportQualityNote[]): void {
+	if (notes.length === 0) return;
+	drawHeading(pen, 'Notes on the measurements');
+	drawBullets(
+		pen,
+		notes.map((n) => `${n.condition}, ${n.positionLabel}: ${n.messages.join(' · ')}`),
+		COLOURS.inkSoft
+	);
+}
+
 export function drawAdvice(pen: ReportPen, advice: string): void {
 	drawHeading(pen, 'Advice');
 	const paragraphs = splitParagraphs(advice);
@@ -365,6 +376,7 @@ export function drawReport(pen: ReportPen, report: ReportContent): void {
 	drawBandTable(pen, rows, report.comparison.target.length > 0);
 	drawSpread(pen, report);
 	drawProblemBands(pen, report.problemBands);
+	drawQualityNotes(pen, report.qualityNotes);
 	drawAdvice(pen, report.advice);
 	if (report.plan) drawPlan(pen, report.plan);
 	drawMethod(pen, report, rows);
