@@ -9,7 +9,7 @@ const room = (over: object = {}) => ({ volumeM3: 100, areas: [{ areaM2: 100, alp
 const EIGHT = (v: number) => Array(8).fill(v);
 
 describe('reverberation model input', () => {
-	it('Sabine: T = 24·ln10·V/(c·A) (Kuttruff, Room Acoustics, 5th ed., §5.1): 100 m³, A = 20 m², c = 343 m/s → 0.8056 s', () => {
+	it('Sabine: T = 24·ln10·V/(c·A) (Kuttruff, Room Acoustics, chapter on reverberation, from memory): 100 m³, A = 20 m², c = 343 m/s → 0.8056 s', () => {
 		expect(sabineTime(room())).toBeCloseTo((24 * Math.LN10 * 100) / (343 * 20), 12);
 		expect(sabineTime(room())).toBeCloseTo(0.8056, 4);
 	});
