@@ -29,8 +29,9 @@ function startWorker(leaseMs = LEASE_MS): ChildProcess {
 	const w = spawn(process.execPath, ['--import', 'tsx', 'scripts/worker.ts'], {
 		cwd: ROOT,
 		env: { ...process.env, NODE_OPTIONS: '', JOB_LEASE_MS: String(leaseMs), WORKER_POLL_MS: '100' },
-		stdio: 'ignore'
+		stdio: ['ignore', 'pipe', 'ignore']
 	});
+	w.stdout!.resume(); // read, so a chatty worker never blocks on a full pipe
 	workers.push(w);
 	return w;
 }
@@ -112,7 +113,9 @@ describe('workers', () => {
 
 	it('stops gracefully on SIGTERM', async () => {
 		const w = startWorker();
-		await new Promise((r) => setTimeout(r, 1500));
+		// Signalled once it says it started: its handlers are in place by then (loading the
+		// modules can take longer than any fixed wait on a busy machine).
+		await new Promise<void>((r) => w.stdout!.on('data', (d) => String(d).includes('started') && r()));
 		const exit = new Promise<number | null>((r) => w.once('exit', (code) => r(code)));
 		w.kill('SIGTERM');
 		expect(await exit).toBe(0);
