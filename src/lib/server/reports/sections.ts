@@ -5,6 +5,7 @@ import {
 	formatDb,
 	formatHzRange,
 	formatMsRange,
+	formatNumber,
 	formatRange,
 	formatRoomSize,
 	formatSeconds,
@@ -127,7 +128,7 @@ export function drawSpread(pen: ReportPen, report: ReportContent): void {
 			formatSpread(after?.metrics.t30S, s),
 			formatSeconds(before.metrics.t20S.mean),
 			formatSeconds(after?.metrics.t20S.mean),
-			formatSeconds(after?.uncertainty.t30S ?? after?.uncertainty.t20S),
+			formatNumber(after?.uncertainty.t30S ?? after?.uncertainty.t20S, 3),
 			judged ? `${SPREAD_VERDICT[judged.verdict]}${judged.metric === 't20S' ? ' (T20)' : ''}` : MISSING
 		];
 	});
