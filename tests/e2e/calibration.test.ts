@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { launch, newPage, seen, signIn } from './browser';
+import { encodeWav } from '../../src/lib/analysis';
 
 // The demo's untreated visit was measured through a chain calibrated from a 94 dB calibrator
 // recording (scripts/demo/seed-calibration.ts): its levels read in dB SPL, and the page says so.
@@ -34,7 +35,6 @@ describe('a calibrated visit', () => {
 		expect(await table.locator('caption').innerText()).toContain('dB SPL');
 		expect(await table.locator('thead').textContent()).toContain('Average (dB SPL)');
 		expect(await page.getByText('Sound pressure levels in dB SPL from calibrated input chains, averaged as measured.').count()).toBeGreaterThan(0);
-		await page.screenshot({ path: '.test-data/calibrated-visit.png', fullPage: true });
 
 		// Normalising for shapes turns the label to relative and names the reference band.
 		await page.waitForLoadState('networkidle');
@@ -67,5 +67,16 @@ describe('a calibrated visit', () => {
 		expect(await seen(state)).toBe(true);
 		expect(await state.innerText()).toContain('Not calibrated');
 		expect(await page.getByText('dB SPL').count()).toBe(0);
+
+		// Calibrated from the browser: a 1 kHz sine of amplitude 0.05 (−26.02 dBFS, AES17) from a 94 dB calibrator.
+		const x = new Float64Array(5 * 48_000);
+		for (let i = 24_000; i < 4.5 * 48_000; i++) x[i] = 0.05 * Math.sin((2 * Math.PI * 1000 * i) / 48_000);
+		await page.getByRole('link', { name: 'Calibrate input chains' }).click();
+		await page.waitForURL(/\/calibration$/);
+		await page.waitForLoadState('networkidle');
+		await page.getByLabel('Calibrator recording').setInputFiles({ name: 'cal-94.wav', mimeType: 'audio/wav', buffer: Buffer.from(encodeWav(x, 48_000, 16)) });
+		await page.getByRole('button', { name: 'Calibrate', exact: true }).click();
+		expect(await seen(page.getByText('Calibrated: dB SPL = dBFS + 120.0 dB.'))).toBe(true);
+		expect(await page.getByTestId('chains').innerText()).toContain('dB SPL = dBFS + 120.0 dB');
 	});
 });
