@@ -58,7 +58,7 @@ describe('an imperial build from a problem band', () => {
 		await page.waitForLoadState('networkidle');
 		const sheet = page.getByRole('article', { name: 'Build sheet: Screen-wall diffuser' });
 		const sheetText = await sheet.innerText();
-		// Inches throughout; the 1/2 in board is cut at the caliper's 15/32 in (the stock's measured figure).
+		// In inches; the 1/2 in board is cut at the caliper's 15/32 in (the stock's measured figure, shown to 1/32 in).
 		expect(sheetText).toMatch(/\d+ \d+\/\d+″/);
 		expect(sheetText).toContain('1/2″ stock measures 15/32″');
 		// Low-waste chosen, with the full-depth box beside it and the saving.
@@ -82,8 +82,7 @@ describe('an imperial build from a problem band', () => {
 		expect(await first.getByTestId('sheet-finish').innerText()).toContain('Finish both faces before cutting');
 		const cuts = await first.getByTestId('cut-sequence').locator('li').allInnerTexts();
 		expect(cuts[0]).toMatch(/^Crosscut the sheet 47 15\/16″ from its end \(into 2 pieces of 47 15\/16″ × 48″\)/);
-		expect(cuts[1]).toMatch(/^Rip a strip .*″ wide from piece 1\./);
-		expect(cuts[2]).toMatch(/^Crosscut it into \d+ × \[\d+\]/);
+		expect(cuts[1]).toMatch(/^Rip (a strip|\d+ strips) .*″ wide from piece 1; crosscut (it|each) into \d+ × \[\d+\]/);
 		// The closing note: the saving and the yield against the area lower bound.
 		const closing = await page.getByTestId('closing-note').innerText();
 		expect(closing).toMatch(/saves [\d.]+ ft² of board on the diffusers/);

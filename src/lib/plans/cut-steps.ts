@@ -37,3 +37,38 @@ export function cutStepText(step: CutStep, sheet: PlannedSheet, keyOf: (p: Place
 			return `Crosscut it into ${piecesText(step.placements, keyOf)}.`;
 	}
 }
+
+/**
+ * The numbered lines of a sheet's cut sequence: breakdown cuts, then each strip ripped and
+ * crosscut — strips in a row of the same width cut into the same pieces said once ("Rip 6
+ * strips … ; crosscut each into …").
+ */
+export function sequenceLines(sheet: PlannedSheet, keyOf: (p: Placement) => string, unit: LengthUnit): string[] {
+	const lines: string[] = [];
+	const steps = sheet.steps;
+	const panels = sheet.layout.panels?.length ?? 0;
+	for (let i = 0; i < steps.length; i++) {
+		const step = steps[i];
+		const cut = steps[i + 1];
+		if (step.kind !== 'rip' || cut?.kind !== 'crosscut') {
+			lines.push(cutStepText(step, sheet, keyOf, unit));
+			continue;
+		}
+		const pieces = piecesText(cut.placements, keyOf);
+		let run = 1;
+		while (true) {
+			const r = steps[i + 2 * run];
+			const c = steps[i + 2 * run + 1];
+			if (r?.kind === 'rip' && c?.kind === 'crosscut' && r.panel === step.panel && Math.abs(r.stripWidthMm - step.stripWidthMm) < 1e-6 && piecesText(c.placements, keyOf) === pieces) run++;
+			else break;
+		}
+		const from = panels > 1 ? ` from piece ${step.panel}` : '';
+		lines.push(
+			run === 1
+				? `Rip a strip ${lengthText(step.stripWidthMm, unit)} wide${from}; crosscut it into ${pieces}.`
+				: `Rip ${run} strips ${lengthText(step.stripWidthMm, unit)} wide${from}; crosscut each into ${pieces}.`
+		);
+		i += 2 * run - 1;
+	}
+	return lines;
+}

@@ -14,6 +14,14 @@ export function lengthText(mm: number, unit: LengthUnit): string {
 	return unit === 'in' ? formatInches(mmToInches(mm)) : `${trimmed(mm, 1)} mm`;
 }
 
+/**
+ * A board thickness: mm to 0.1, inches to 1/32″ — a caliper's 15/32″ is not a sixteenth, and a
+ * sheet sold as 1/2″ must not read as 1/2″ when it measures less.
+ */
+export function thicknessText(mm: number, unit: LengthUnit): string {
+	return unit === 'in' ? formatInches(mmToInches(mm), 32) : `${trimmed(mm, 1)} mm`;
+}
+
 /** A length as a form shows it, so that submitting it unchanged gives the same length back. */
 export function lengthInput(mm: number, unit: LengthUnit): string {
 	if (unit === 'in') return formatInches(mmToInches(mm), 32).replace('″', ' in');

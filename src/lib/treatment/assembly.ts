@@ -223,9 +223,12 @@ export function assemblyStepSvg(g: DiffuserGeometry, steps: readonly AssemblySte
 	if (!step) throw new Error(`no assembly step ${index + 1}`);
 	const unit = options.unit ?? 'mm';
 	const s = options.pxPerMm ?? Math.min(1.2, 520 / g.panelWidthMm);
+	// Mounting pieces are drawn in a row behind the back plane (on the wall side).
+	const mountingRow = steps.some((st) => st.pieces.some((p) => p.id.startsWith('M')));
+	const behind = mountingRow ? g.boardMm + 8 : 0;
 	const margin = { left: 16, right: 16, top: 30, bottom: 24 };
 	const width = margin.left + g.panelWidthMm * s + margin.right;
-	const height = margin.top + g.overallDepthMm * s + margin.bottom;
+	const height = margin.top + (g.overallDepthMm + behind) * s + margin.bottom;
 	const X = (mm: number) => margin.left + mm * s;
 	const Y = (mm: number) => margin.top + mm * s;
 	const title = `Step ${step.n}: ${step.title}`;
@@ -243,7 +246,27 @@ export function assemblyStepSvg(g: DiffuserGeometry, steps: readonly AssemblySte
 		}
 	};
 	if (!subAssembly) for (const id of earlier) draw(id, false, '');
-	for (const piece of step.pieces) draw(piece.id, true, options.labelOf?.(piece) ?? '');
+	for (const piece of step.pieces) if (!piece.id.startsWith('M')) draw(piece.id, true, options.labelOf?.(piece) ?? '');
+	// Mounting: blocks behind the wells that reach the back plane (low-waste) or at the sides;
+	// cleats and the spacer across the width.
+	const mounting = step.pieces.filter((p) => p.id.startsWith('M'));
+	if (mounting.length) {
+		const y = g.overallDepthMm + 6;
+		const D = g.overallDepthMm - g.boardMm;
+		const anchors = g.construction === 'low-waste' ? g.wells.filter((w) => D - w.depthMm <= 1e-6).map((w) => w.xMm) : [0, g.panelWidthMm - g.wellWidthMm];
+		const shown = new Set<string>();
+		for (const piece of mounting) {
+			const key = piece.part.name;
+			if (shown.has(key)) continue;
+			shown.add(key);
+			const label = options.labelOf?.(piece) ?? '';
+			const rects = key === 'mounting block' ? anchors.map((x) => ({ x, w: Math.min(piece.part.widthMm, g.panelWidthMm - x) })) : [{ x: (g.panelWidthMm - piece.part.lengthMm) / 2, w: piece.part.lengthMm }];
+			for (const r of rects) {
+				out.push(rect(X(r.x), Y(y), r.w * s, g.boardMm * s, `fill="${PALETTE.accent}" fill-opacity="0.85" stroke="${PALETTE.ink}" stroke-width="0.75"`));
+				if (label && r.w * s >= label.length * 6 + 2) out.push(text(X(r.x + r.w / 2), Y(y + g.boardMm / 2) + 3, label, `${DRAWING_FONT} font-size="8" fill="${PALETTE.paper}" text-anchor="middle"`));
+			}
+		}
+	}
 	if (step.pieces.some((p) => p.id === 'K1')) {
 		// The caps cover the whole profile: drawn as its outline.
 		const pts: string[] = [`M ${px(X(0))} ${px(Y(0))}`];
@@ -260,7 +283,7 @@ export function assemblyStepSvg(g: DiffuserGeometry, steps: readonly AssemblySte
 		const fin = g.fins[firstOfNew * WELLS_PER_SUBASSEMBLY];
 		if (fin) out.push(line(X(fin.xMm + g.finMm / 2), Y(0), X(fin.xMm + g.finMm / 2), Y(fin.depthMm), `stroke="${PALETTE.accent}" stroke-width="3"`));
 	}
-	out.push(text(margin.left, height - 8, `front ↑ · panel ${formatLength(g.panelWidthMm, unit)} wide`, `${DRAWING_FONT} font-size="9" fill="${PALETTE.muted}"`));
+	out.push(text(margin.left, height - 8, `front ↑${mountingRow ? ' · wall ↓' : ''} · panel ${formatLength(g.panelWidthMm, unit)} wide`, `${DRAWING_FONT} font-size="9" fill="${PALETTE.muted}"`));
 	return [
 		`<svg xmlns="http://www.w3.org/2000/svg" width="${px(width)}" height="${px(height)}" viewBox="0 0 ${px(width)} ${px(height)}" role="img" aria-label="${escapeXml(title)}">`,
 		...out,

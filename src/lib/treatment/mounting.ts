@@ -39,6 +39,9 @@ export interface MountingPlan {
 	/** Screws: how many and where. */
 	fixings: { count: number; where: string }[];
 	notes: string[];
+	/** Screwed blocks: their positions across the panel (left edge, mm) and how many at each. */
+	blockXsMm: number[];
+	blocksPerAnchor: number;
 }
 
 const round1 = (mm: number) => Math.round(mm * 10) / 10;
@@ -48,7 +51,7 @@ export function mountingPlan(method: MountingMethod, u: MountingUnit): MountingP
 	for (const [v, what] of [[u.widthMm, 'width'], [u.heightMm, 'height'], [u.boardMm, 'board']] as const) {
 		if (!(Number.isFinite(v) && v > 0)) throw new Error(`mounting: ${what} must be a positive number of mm, got ${v}`);
 	}
-	if (method === 'none') return { method, parts: [], fixings: [], notes: [] };
+	if (method === 'none') return { method, parts: [], fixings: [], notes: [], blockXsMm: [], blocksPerAnchor: 0 };
 	if (method === 'french-cleat') {
 		const length = u.widthMm - 2 * CLEAT_INSET_MM;
 		if (length < 2 * CLEAT_WIDTH_MM) throw new Error(`a ${round1(u.widthMm)} mm wide panel is too narrow for a cleat; use screwed blocks`);
@@ -62,7 +65,9 @@ export function mountingPlan(method: MountingMethod, u: MountingUnit): MountingP
 				{ count: wallScrews, where: `through the wall cleat into the structure, at most ${SCREW_SPACING_MM} mm apart (at every stud)` },
 				{ count: wallScrews, where: 'through the panel cleat into the panel, bevel down and facing the wall' }
 			],
-			notes: ['The panel lifts off its cleat; nothing to unscrew. Fit the wall cleat level, bevel up and facing the wall.']
+			notes: ['The panel lifts off its cleat; nothing to unscrew. Fit the wall cleat level, bevel up and facing the wall.'],
+			blockXsMm: [],
+			blocksPerAnchor: 0
 		};
 	}
 	const perSide = u.heightMm > TALL_PANEL_MM ? 2 : 1;
@@ -75,9 +80,9 @@ export function mountingPlan(method: MountingMethod, u: MountingUnit): MountingP
 			{ count: blocks * 2, where: 'two through each block into the structure' },
 			{ count: blocks, where: u.anchorXsMm?.length ? 'one through each back strip of a deepest well into its block: unscrew these to take the panel down' : "one through the panel's frame into each block: unscrew these to take the panel down" }
 		],
-		notes: [
-			`${blocks} blocks, ${perSide === 2 ? 'two' : 'one'} near the top and ${perSide === 2 ? 'two' : 'one'} near the bottom at ${xs.length === 2 && !u.anchorXsMm?.length ? 'each side' : `${xs.map((x) => round1(x)).join(', ')} mm from the left side`}.`
-		]
+		notes: [`${blocks} blocks, ${perSide === 2 ? 'two' : 'one'} near the top and ${perSide === 2 ? 'two' : 'one'} near the bottom ${u.anchorXsMm?.length ? 'behind each deepest well' : 'at each side'}.`],
+		blockXsMm: xs.map(round1),
+		blocksPerAnchor: 2 * perSide
 	};
 }
 

@@ -154,7 +154,8 @@ export function openingFitSvg(fit: OpeningFit, options: { unit?: LengthUnit; wid
 	const pts = Object.values(corners);
 	const maxX = Math.max(...pts.map((p) => p.x));
 	const maxY = Math.max(...pts.map((p) => p.y));
-	const s = (options.widthPx ?? 360) / maxX;
+	// Fit the drawing in about 360 × 300 px, whichever way the opening is longer.
+	const s = Math.min((options.widthPx ?? 360) / maxX, 300 / maxY);
 	const margin = { left: 70, right: 70, top: 34, bottom: 40 };
 	const width = margin.left + maxX * s + margin.right;
 	const height = margin.top + maxY * s + margin.bottom;

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { itemBuild, measuredThicknessOf, planCutList } from '../../../src/lib/plans/build';
+import { thicknessText } from '../../../src/lib/plans/format';
 import type { PlanItem, StockSheetRow } from '../../../src/lib/plans/types';
 
 // A "1/2 in" sheet is commonly thinner than 12.7 mm (common practice, no source): the caliper
@@ -58,5 +59,21 @@ describe('actual versus nominal thickness', () => {
 		// Without the measured figure, a 12.7 mm part finds no 11.9 mm sheet.
 		const nominal = itemBuild(diffuser('full-depth'));
 		expect(planCutList([nominal], [{ ...HALF_INCH_PLY, nominalThicknessMm: null }], 3)).toMatchObject({ ok: false, error: expect.stringMatching(/no stock sheet has that thickness/) });
+	});
+});
+
+describe('thicknesses in inches, to 1/32 in (exact fractions of 25.4 mm)', () => {
+	it.each([
+		[(15 / 32) * 25.4, '15/32″'], // 11.90625 mm
+		[11.906, '15/32″'], // as stored to 0.001 mm: 0.46874 in, 14.9997/32
+		[12.7, '1/2″'],
+		[(23 / 32) * 25.4, '23/32″'], // "3/4 in" ply that measures 18.26 mm
+		[19.05, '3/4″'],
+		[(1 + 1 / 32) * 25.4, '1 1/32″']
+	])('%f mm is %s', (mm, text) => {
+		expect(thicknessText(mm, 'in')).toBe(text);
+	});
+	it('and in mm to 0.1', () => {
+		expect(thicknessText(11.906, 'mm')).toBe('11.9 mm');
 	});
 });
