@@ -235,7 +235,7 @@ describe('plans that cannot be evaluated', () => {
 	});
 
 	it('an item whose panel stock is unknown is a problem named after the item', () => {
-		const bad = item({ label: 'Oak trap', params: { kind: 'membrane', panelThicknessMm: 6, panelStockId: 'oak', cavityDepthMm: 100, cavityFill: 'porous', frameThicknessMm: 18 } });
+		const bad = item({ label: 'Oak trap', params: { kind: 'membrane', panelThicknessMm: 6, panelStockId: 'oak', cavityDepthMm: 100, cavityFill: 'porous', frameThicknessMm: 18, mounting: { method: 'none', notes: '' }, fit: null } });
 		const e = evaluatePlan(input({ plan: planOf({ finishes: finishesAll('flat-10'), items: [bad] }) }));
 		expect(e.problems).toEqual([expect.stringMatching(/^Oak trap: unknown panel stock "oak"/)]);
 		expect(e.items[0].error).toMatch(/^Oak trap:/);

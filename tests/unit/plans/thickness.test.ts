@@ -17,7 +17,7 @@ const diffuser = (construction: 'full-depth' | 'low-waste'): PlanItem => ({
 	unitPrice: null,
 	problemBandId: null,
 	why: null,
-	params: { kind: 'diffuser', sequence: 'quadratic-residue', prime: 7, designFrequencyHz: 500, wellWidthMm: 50, finThicknessMm: 12.7, maxDepthMm: null, boardThicknessMm: 12.7, construction }
+	params: { kind: 'diffuser', sequence: 'quadratic-residue', prime: 7, designFrequencyHz: 500, wellWidthMm: 50, finThicknessMm: 12.7, maxDepthMm: null, boardThicknessMm: 12.7, construction, mounting: { method: 'none', notes: '' }, fit: null }
 });
 
 describe('actual versus nominal thickness', () => {
