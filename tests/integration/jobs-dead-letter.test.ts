@@ -1,12 +1,16 @@
 // Jobs that always end: an attempt is counted when a job is claimed, so a job whose worker is
 // killed every time runs out of attempts like any other, and is then dead-lettered — the job
 // `dead` with its reason, its capture failed with a message that says what happened.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import type { Knex } from 'knex';
+import { spawn, type ChildProcess } from 'node:child_process';
+import { join } from 'node:path';
 import { testDb } from '../helpers/db';
 import { makeOrganization, makeProjectTree, makeUser, TEST_PASSWORD, type ProjectTree } from '../helpers/factories';
 import { signedInClient, type Client } from '../helpers/http';
 import { decayWav, sha256 } from '../helpers/wav';
+import { encodeWav } from '../../src/lib/analysis';
+import { exponentialNoiseDecay } from '../../src/lib/analysis/synthetic';
 import { confirmUpload, createCapture } from '../../src/lib/server/captures/service';
 import { createStorage, type Storage } from '../../src/lib/server/storage';
 import { loadConfig } from '../../src/lib/server/config';
@@ -21,8 +25,29 @@ let scope: Scope;
 let acoustician: Client;
 const s3 = createStorage(loadConfig(process.env));
 
-async function addCapture(seed: number, label: string): Promise<{ captureId: number; jobId: number }> {
-	const wav = decayWav({ seed, durationS: 0.5 });
+const ROOT = join(import.meta.dirname, '../..');
+const workers: ChildProcess[] = [];
+
+function startWorker(leaseMs: number): ChildProcess {
+	// Node itself with the tsx loader, so the pid signalled is the worker's own.
+	const w = spawn(process.execPath, ['--import', 'tsx', 'scripts/worker.ts'], {
+		cwd: ROOT,
+		env: { ...process.env, NODE_OPTIONS: '', JOB_LEASE_MS: String(leaseMs), WORKER_POLL_MS: '100' },
+		stdio: 'ignore'
+	});
+	workers.push(w);
+	return w;
+}
+
+async function waitUntil(check: () => Promise<boolean>, what: string, timeoutMs = 60_000): Promise<void> {
+	const until = Date.now() + timeoutMs;
+	while (!(await check())) {
+		if (Date.now() > until) throw new Error(`timed out waiting for ${what}`);
+		await new Promise((r) => setTimeout(r, 20));
+	}
+}
+
+async function addCapture(seed: number, label: string, wav = decayWav({ seed, durationS: 0.5 })): Promise<{ captureId: number; jobId: number }> {
 	const created = await createCapture(scope, tree.sessionId, { filename: `${label}.wav`, sizeBytes: wav.byteLength, sha256: sha256(wav), kind: 'impulse', newPositionLabel: label, channel: 0 }, s3);
 	await s3.put(created.capture.objectKey, wav, 'audio/wav', wav.byteLength);
 	await confirmUpload(scope, created.capture.id, s3);
@@ -49,6 +74,9 @@ beforeAll(async () => {
 	acoustician = await signedInClient(user.email, TEST_PASSWORD);
 	// Settle whatever other tests left queued, so the claims below meet only these jobs.
 	while (await runNextJob(k, s3, { owner: 'integration-test' }));
+});
+afterEach(() => {
+	for (const w of workers.splice(0)) if (w.exitCode === null) w.kill('SIGKILL');
 });
 afterAll(async () => k.destroy());
 
@@ -86,6 +114,32 @@ describe('a job whose worker is killed on every attempt', () => {
 		expect(await claim(k, 'later-worker', 1)).toBeNull();
 		expect((await k('jobs').where({ id: jobId }).first('attempts')).attempts).toBe(max);
 	});
+
+	it('real worker processes killed on each of its five attempts: the sixth worker dead-letters it and stays up', async () => {
+		// A long, high-rate recording, so the analysis is still running when each worker dies.
+		const x = exponentialNoiseDecay({ t60S: 1.2, durationS: 30, sampleRate: 96_000, onsetS: 0.01, noiseDbRePeak: -80, seed: 7010 });
+		for (let i = 0; i < x.length; i++) x[i] *= 0.1;
+		const { captureId, jobId } = await addCapture(7010, 'killed-process', encodeWav(x, 96_000, 24));
+		const attempts = async () => (await k('jobs').where({ id: jobId }).first('attempts')).attempts as number;
+		const LEASE_MS = 1_500;
+		for (let attempt = 1; attempt <= 5; attempt++) {
+			const w = startWorker(LEASE_MS);
+			await waitUntil(async () => (await attempts()) === attempt, `worker ${attempt} to claim the job`);
+			w.kill('SIGKILL');
+			await new Promise((r) => w.once('exit', r));
+			await pause(LEASE_MS + 100); // its lease runs out
+		}
+		const survivor = startWorker(LEASE_MS);
+		await waitUntil(async () => (await k('jobs').where({ id: jobId }).first('status')).status === 'dead', 'the job to be dead-lettered');
+		expect(await attempts()).toBe(5);
+		const shown = await shownCapture(captureId);
+		expect(shown.status).toBe('failed');
+		expect(shown.error).toMatch(/tried 5 times and the last try stopped before finishing/);
+		expect(await k('analyses').where({ capture_id: captureId }).first()).toBeUndefined();
+		await pause(500);
+		expect(survivor.exitCode).toBeNull(); // it went on polling, and did not take the job again
+		expect(await attempts()).toBe(5);
+	}, 120_000);
 
 	it('a worker killed after an error keeps the error in the reason', async () => {
 		const { captureId, jobId } = await addCapture(7002, 'error-then-killed');
