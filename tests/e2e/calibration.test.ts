@@ -50,6 +50,13 @@ describe('a calibrated visit', () => {
 		await page.getByRole('button', { name: 'Store the correction' }).click();
 		expect(await seen(page.getByText(/Line 3 of the correction file/).first())).toBe(true);
 		expect(await page.getByTestId('chains').innerText()).not.toContain('mic.txt');
+
+		// The capture page draws the response through the chain too, and says so.
+		await page.goBack();
+		await page.waitForURL(/\/sessions\/\d+$/);
+		await page.getByRole('link', { name: 'untreated-P1-ir.wav' }).click();
+		await page.waitForURL(/\/captures\/\d+$/);
+		expect(await seen(page.getByText('Calibrated input chain: levels in dB SPL.'), 15_000)).toBe(true);
 	});
 
 	it('a visit without calibration labels its levels relative', async () => {

@@ -23,10 +23,12 @@ export interface CaptureLevels {
 	/** The microphone correction that was taken out, null when none. */
 	correction: { filename: string; sense: CorrectionSense; lowHz: number; highHz: number } | null;
 	/**
-	 * Per analysis band: the band's sound exposure level of the analysed response, 10·lg(2·Σx²/fs)
-	 * (full-scale units, AES17 convention, so a 1 s sine of amplitude A reads 20·lg A), with the
-	 * offset added and the correction at the band's centre taken out. Null where the response
-	 * does not reach the band.
+	 * Per analysis band: the band level of the analysed response — its power response |H(f)|²
+	 * averaged over the band, the value the 1/1-octave (1/3 for third bands) smoothed response has
+	 * at the band's centre, so the band chart and the response chart agree — with the offset added
+	 * and the correction at the band's centre taken out. For a deconvolved sweep, H is the gain from
+	 * the played signal to the recorded one, so a calibrated band level is the dB SPL a full-scale
+	 * sine drive gives, averaged over the band. Null where the response does not reach the band.
 	 */
 	bands: { centerHz: number; levelDb: number | null }[];
 	/**
@@ -34,12 +36,6 @@ export interface CaptureLevels {
 	 * above: the offset minus the correction at that frequency. Same grid as the response.
 	 */
 	responseShiftDb: number[];
-}
-
-/** Bandwidth factor of the smoothing windows: a 1/b-octave window [f·2^(−1/2b), f·2^(1/2b)] is f·(2^(1/2b) − 2^(−1/2b)) wide. */
-function bandwidthHz(centreHz: number, fraction: 1 | 3): number {
-	const half = 2 ** (1 / (2 * fraction));
-	return centreHz * (half - 1 / half);
 }
 
 /** Value of a log-spaced curve at a frequency, linear in dB over log frequency; null outside it. */
@@ -53,17 +49,6 @@ function curveAt(freqHz: readonly number[], db: readonly number[], f: number): n
 	return db[i] + u * (db[i + 1] - db[i]);
 }
 
-/**
- * Band level from the 1/b-octave smoothed power response at the band's centre. The smoothed
- * value is the mean of |X(k)|² over the bins of the band; by Parseval's relation for the DFT
- * (Oppenheim & Schafer, Discrete-Time Signal Processing, §8.6.4) the band's energy is
- * Σx² = (2/N)·Σ_band |X(k)|² = 2·B·mean|X|²/fs for a one-sided band of width B away from DC and
- * Nyquist, so 10·lg(2·Σx²/fs) = 10·lg(4·B·mean|X|²/fs²).
- */
-export function bandLevelFromSmoothed(meanPowerDb: number, centreHz: number, fraction: 1 | 3, sampleRate: number): number {
-	return meanPowerDb + 10 * Math.log10((4 * bandwidthHz(centreHz, fraction)) / sampleRate ** 2);
-}
-
 /** The analysis's band levels in dB re full scale (as analysed, before any chain). */
 export function bandLevelsDbfs(result: Pick<AnalysisResult, 'bands' | 'bandKind' | 'sampleRate'> & { curves: Pick<AnalysisCurves, 'frequencyResponse' | 'frequencyResponseSmoothed'> }): { centerHz: number; levelDb: number | null }[] {
 	const fraction = result.bandKind === 'third' ? 3 : 1;
@@ -73,7 +58,7 @@ export function bandLevelsDbfs(result: Pick<AnalysisResult, 'bands' | 'bandKind'
 		// Bands whose upper edge passes Nyquist hold less than their width.
 		const upper = band.exactHz * 2 ** (1 / (2 * fraction));
 		const mean = upper < result.sampleRate / 2 ? curveAt(grid, smoothed, band.exactHz) : null;
-		return { centerHz: band.centerHz, levelDb: mean === null ? null : bandLevelFromSmoothed(mean, band.exactHz, fraction, result.sampleRate) };
+		return { centerHz: band.centerHz, levelDb: mean };
 	});
 }
 

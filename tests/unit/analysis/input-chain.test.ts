@@ -8,9 +8,11 @@ const FS = 48_000;
 
 /**
  * Decaying tones A·e^(−t/τ)·sin(2πft) from t = 10 ms. Each one's energy is
- * ∫ A²e^(−2t/τ)sin²(ωt) dt = (A²/2)·(τ/2 − (2/τ)/((2/τ)² + 4ω²)) (a table integral,
- * Gradshteyn & Ryzhik 3.893 with sin² = (1 − cos 2ωt)/2), so its sound exposure level re full
- * scale, 10·lg(2·E), is known in closed form.
+ * E = ∫ A²e^(−2t/τ)sin²(ωt) dt = (A²/2)·(τ/2 − (2/τ)/((2/τ)² + 4ω²)) (a table integral,
+ * Gradshteyn & Ryzhik 3.893 with sin² = (1 − cos 2ωt)/2). By Parseval's relation for the DFT
+ * (Oppenheim & Schafer, Discrete-Time Signal Processing, §8.6.4) a tone's N-point spectrum holds
+ * Σ|X(k)|² = (N/2)·fs·E over its positive-frequency bins, so over a band of width B (B·N/fs bins)
+ * around it the mean power is fs²·E/(2B): its band level is 10·lg(fs²·E/(2B)), in closed form.
  */
 function decayingTones(tones: { f: number; a: number; tau: number }[], durationS = 1.5): Float64Array {
 	const x = new Float64Array(Math.round(durationS * FS));
@@ -23,10 +25,14 @@ function decayingTones(tones: { f: number; a: number; tau: number }[], durationS
 	}
 	return x;
 }
-const exposureDb = ({ f, a, tau }: { f: number; a: number; tau: number }) => {
+const bandLevelDb = ({ f, a, tau }: { f: number; a: number; tau: number }) => {
 	const w = 2 * Math.PI * f;
-	const energy = (a * a) / 2 * (tau / 2 - (2 / tau) / ((2 / tau) ** 2 + 4 * w * w));
-	return 10 * Math.log10(2 * energy);
+	const energy = ((a * a) / 2) * (tau / 2 - 2 / tau / ((2 / tau) ** 2 + 4 * w * w));
+	// The octave the engine reports the tone in: exact mid-band frequency (IEC 61260-1), width
+	// f_m·(√2 − 1/√2) of the 1/1-octave window the response is smoothed over.
+	const exactHz = result.bands.find((b) => b.centerHz === f)!.exactHz;
+	const bandwidthHz = exactHz * (Math.SQRT2 - 1 / Math.SQRT2);
+	return 10 * Math.log10((FS * FS * energy) / (2 * bandwidthHz));
 };
 
 const TONES = [
@@ -44,11 +50,11 @@ function calibratorTone(amplitude: number): Float64Array {
 }
 
 describe('band levels of an analysis', () => {
-	it('read each octave band of decaying tones at the closed-form exposure level within 0.1 dB', () => {
+	it('read each octave band of decaying tones at the closed-form band level within 0.1 dB', () => {
 		const bands = bandLevelsDbfs(result);
-		for (const tone of TONES) expect(level(bands, tone.f)).toBeCloseTo(exposureDb(tone), 1);
+		for (const tone of TONES) expect(level(bands, tone.f)).toBeCloseTo(bandLevelDb(tone), 1);
 		// Between the tones there is (almost) nothing: far below both.
-		expect(level(bands, 4000)).toBeLessThan(exposureDb(TONES[1]) - 40);
+		expect(level(bands, 4000)).toBeLessThan(bandLevelDb(TONES[1]) - 40);
 	});
 
 	it('without a chain are relative, unshifted, and labelled so', () => {
@@ -74,7 +80,7 @@ describe('levels through a calibrated chain', () => {
 		const levels = captureLevels(result, { id: 1, offsetDb: calibration.offsetDb, statedLevelDbSpl: 94, correction: null });
 		expect(levels.calibrated).toBe(true);
 		expect(levels.axisLabel).toBe('dB SPL');
-		for (const tone of TONES) expect(level(levels.bands, tone.f)).toBeCloseTo(exposureDb(tone) + expectedOffset, 1);
+		for (const tone of TONES) expect(level(levels.bands, tone.f)).toBeCloseTo(bandLevelDb(tone) + expectedOffset, 1);
 		expect(levels.responseShiftDb.every((v) => Math.abs(v - calibration.offsetDb) < 0.01)).toBe(true);
 	});
 
