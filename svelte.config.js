@@ -5,7 +5,9 @@ import { vitePreprocess } from '@sveltejs/vite-plugin-svelte';
 const config = {
 	preprocess: vitePreprocess(),
 	kit: {
-		adapter: adapter({ out: 'build' }),
+		// The demo serves build/, the tests build-test/ (scripts/processes.ts): a test run never
+		// rebuilds the files a running demo serves, nor the other way round.
+		adapter: adapter({ out: process.env.RINGDOWN_BUILD_DIR || 'build' }),
 		// SvelteKit's origin check stays on (the default); ORIGIN is set for `node build`. The
 		// handle in hooks.server.ts extends it to every content type and to requests without Origin.
 		csrf: { trustedOrigins: [] },

@@ -1,6 +1,6 @@
 // Child processes of the start and test commands: the web server and the worker.
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { existsSync, readdirSync, statSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { loadConfig } from '../src/lib/server/config';
 import { uploadBodyBytes } from '../src/lib/server/body-limit';
@@ -39,7 +39,7 @@ export function startWebServer(env: Record<string, string>, quiet = false): Chil
 	// adapter-node's limit applies to every route, so it is set to what the one large-body route
 	// (the scripted upload) needs; the app's handle holds every other route to BODY_MAX_BYTES.
 	const bodySizeLimit = String(uploadBodyBytes(loadConfig({ ...process.env, ...env })));
-	return startChild('web server', process.execPath, ['build/index.js'], { BODY_SIZE_LIMIT: bodySizeLimit, ...env }, quiet);
+	return startChild('web server', process.execPath, [join(buildDir(env), 'index.js')], { BODY_SIZE_LIMIT: bodySizeLimit, ...env }, quiet);
 }
 
 export function startWorker(env: Record<string, string>, quiet = false): Child {
@@ -126,12 +126,63 @@ function newestMtime(dir: string): number {
 }
 
 /** Build the app unless the build is newer than every source file. */
+/** Where the app is built for this environment: `build` for the demo, `build-test` for the tests. */
+export function buildDir(env: Record<string, string | undefined> = process.env): string {
+	return env.RINGDOWN_BUILD_DIR || 'build';
+}
+
+const BUILD_LOCK = join(ROOT, '.build.lock');
+
+function alive(pid: number): boolean {
+	try {
+		process.kill(pid, 0);
+		return true;
+	} catch {
+		return false;
+	}
+}
+
+/**
+ * One build at a time in this checkout: every build writes SvelteKit's intermediate files under
+ * .svelte-kit, so a demo start and a test run building at once would spoil each other's. The lock
+ * is a file holding the builder's pid; one left by a process that died is taken over.
+ */
+function withBuildLock(work: () => void): void {
+	const pause = new Int32Array(new SharedArrayBuffer(4));
+	for (;;) {
+		try {
+			writeFileSync(BUILD_LOCK, String(process.pid), { flag: 'wx' });
+			break;
+		} catch {
+			let holder = 0;
+			try {
+				holder = Number(readFileSync(BUILD_LOCK, 'utf8').trim());
+			} catch {
+				continue; // released meanwhile
+			}
+			if (!Number.isInteger(holder) || holder <= 0 || !alive(holder)) rmSync(BUILD_LOCK, { force: true });
+			else Atomics.wait(pause, 0, 0, 250);
+		}
+	}
+	try {
+		work();
+	} finally {
+		rmSync(BUILD_LOCK, { force: true });
+	}
+}
+
 export function buildIfStale(force = false): void {
-	const marker = join(ROOT, 'build/index.js');
+	const marker = join(ROOT, buildDir(), 'index.js');
 	const inputs = ['src', 'static', 'package-lock.json', 'svelte.config.js', 'vite.config.ts', 'tailwind.config.ts'];
-	const sourceTime = Math.max(...inputs.map((i) => (statSync(join(ROOT, i)).isDirectory() ? newestMtime(join(ROOT, i)) : statSync(join(ROOT, i)).mtimeMs)));
-	if (!force && existsSync(marker) && statSync(marker).mtimeMs > sourceTime) return;
-	console.log('» Building the app');
-	const r = spawnSync(join(ROOT, 'node_modules/.bin/vite'), ['build', '--logLevel', 'warn'], { cwd: ROOT, stdio: 'inherit' });
-	if (r.status !== 0) throw new Error('The build failed.');
+	const stale = () => {
+		const sourceTime = Math.max(...inputs.map((i) => (statSync(join(ROOT, i)).isDirectory() ? newestMtime(join(ROOT, i)) : statSync(join(ROOT, i)).mtimeMs)));
+		return force || !existsSync(marker) || statSync(marker).mtimeMs <= sourceTime;
+	};
+	if (!stale()) return;
+	withBuildLock(() => {
+		if (!stale()) return; // built by the holder of the lock meanwhile
+		console.log('» Building the app');
+		const r = spawnSync(join(ROOT, 'node_modules/.bin/vite'), ['build', '--logLevel', 'warn'], { cwd: ROOT, stdio: 'inherit', env: { ...process.env, RINGDOWN_BUILD_DIR: buildDir() } });
+		if (r.status !== 0) throw new Error('The build failed.');
+	});
 }

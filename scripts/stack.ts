@@ -66,7 +66,8 @@ export function profileEnv(profile: Profile): Record<string, string> {
 		PORT: String(p.app),
 		HOST: '127.0.0.1',
 		AUTH_SECRET: authSecret(dataDir(profile)),
-		AUTH_TRUST_HOST: 'true'
+		AUTH_TRUST_HOST: 'true',
+		RINGDOWN_BUILD_DIR: profile === 'demo' ? 'build' : 'build-test'
 	};
 	// For the demo, a value already in the environment (e.g. from a shell) takes precedence;
 	// the test profile is fully isolated and ignores it.
