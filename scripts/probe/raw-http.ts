@@ -27,6 +27,8 @@ export interface RawRequest {
 	/** Send without Content-Length (chunked transfer encoding). */
 	chunked?: boolean;
 	timeoutMs?: number;
+	/** Send from this local address (127.0.0.0/8 all reaches loopback): a different client each. */
+	localAddress?: string;
 }
 
 const CHUNK = 64 * 1024;
@@ -61,7 +63,7 @@ export function rawRequest(base: string, r: RawRequest): Promise<RawAnswer> {
 			resolve({ ...a, ms: performance.now() - t0, sentBytes });
 			req.destroy();
 		};
-		const req = request(url, { method: r.method ?? 'POST', headers, agent: false }, (res) => {
+		const req = request(url, { method: r.method ?? 'POST', headers, agent: false, localAddress: r.localAddress }, (res) => {
 			answered = true;
 			let body = '';
 			res.setEncoding('utf8');
