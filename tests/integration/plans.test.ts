@@ -271,6 +271,35 @@ describe('settings, stock and the cut list', () => {
 		expect(await k('stock_sheets').where({ id: elsewhere.id }).first()).toBeTruthy();
 	});
 
+	it('the largest piece the saw takes: both sides or neither, in the form\'s unit; a sheet\'s nominal thickness beside the measured one', async () => {
+		const own = await makeProjectTree(k, org);
+		const saw = (fields: Record<string, string>) => acoustician.postForm(`/rooms/${own.roomId}/plan/build?/saveSawLimit`, { formId: 'saw', units: 'in', ...fields });
+		const half = await saw({ sawMaxLengthMm: '50', sawMaxWidthMm: '' });
+		expect(half.status).toBe(400);
+		expect(await half.text()).toContain('Give both the length and the width, or leave both empty for whole sheets.');
+		// Refused: nothing written, not even the plan row.
+		expect(await planOf(own.roomId)).toBeUndefined();
+		expect((await saw({ sawMaxLengthMm: '50', sawMaxWidthMm: '50' })).status).toBe(200);
+		// 50 in = 1270 mm exactly (1 in = 25.4 mm).
+		expect(await planOf(own.roomId)).toMatchObject({ saw_max_length_mm: 1270, saw_max_width_mm: 1270 });
+		// Saving the plan's other settings leaves the saw size alone.
+		await consultant.postForm(`/rooms/${own.roomId}/plan?/saveSettings`, { formId: 'settings', baselineSessionId: '', afterSessionId: '', temperatureC: '20', relativeHumidityPct: '50', currency: 'USD', notes: '' });
+		expect(await planOf(own.roomId)).toMatchObject({ saw_max_length_mm: 1270 });
+		expect((await saw({ sawMaxLengthMm: '', sawMaxWidthMm: '' })).status).toBe(200);
+		expect(await planOf(own.roomId)).toMatchObject({ saw_max_length_mm: null, saw_max_width_mm: null });
+		// Who may: a client of the project may not (403), another practice does not see it (404).
+		expect((await client.postForm(`/rooms/${tree.roomId}/plan/build?/saveSawLimit`, { formId: 'saw', units: 'mm', sawMaxLengthMm: '1250', sawMaxWidthMm: '1250' })).status).toBe(403);
+		expect((await stranger.postForm(`/rooms/${own.roomId}/plan/build?/saveSawLimit`, { formId: 'saw', units: 'mm', sawMaxLengthMm: '1250', sawMaxWidthMm: '1250' })).status).toBe(404);
+
+		const ply = { formId: 'stock', units: 'in', label: 'Ply 1/2', lengthMm: '96', widthMm: '48', thicknessMm: '15/32', nominalThicknessMm: '1/2', finishedFaces: '2', grain: 'along-length', price: '' };
+		expect((await acoustician.postForm(`/rooms/${own.roomId}/plan/build?/addStock`, ply)).status).toBe(200);
+		// 15/32 in = 11.906 mm, 1/2 in = 12.7 mm.
+		expect(await k('stock_sheets').where({ label: 'Ply 1/2' }).first()).toMatchObject({ thickness_mm: 11.906, nominal_thickness_mm: 12.7 });
+		const noNominal = await acoustician.postForm(`/rooms/${own.roomId}/plan/build?/addStock`, { ...ply, label: 'Ply x', nominalThicknessMm: '90' });
+		expect(noNominal.status).toBe(400);
+		expect(await k('stock_sheets').where({ label: 'Ply x' }).first()).toBeUndefined();
+	});
+
 	it('the cut list lays out every piece on the stock, as CSV and JSON', async () => {
 		// Without 3/4″ sheet the inch panel's frame cannot be cut, and the export says so.
 		const missing = await (await acoustician.get(`/api/rooms/${tree.roomId}/plan/cutlist?format=json`, { accept: 'application/json' })).json();
