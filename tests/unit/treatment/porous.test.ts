@@ -177,6 +177,18 @@ describe('band values and validity range', () => {
 		expect(average[i]).toBeLessThan(Math.max(lo, hi));
 	});
 
+	it('band-average is the mean of nine points spaced evenly in log frequency from f/√2 to f·√2, for either incidence (product rule, common practice, no source)', () => {
+		const layer = { flowResistivity: SIGMA, thicknessM: D };
+		const points = (fc: number) => Array.from({ length: 9 }, (_, k) => (fc / Math.SQRT2) * 2 ** (k / 8));
+		const mean = (values: number[]) => values.reduce((a, b) => a + b, 0) / values.length;
+		const random = porousBandAbsorption(layer, { evaluation: 'band-average' }).coefficients;
+		const normal = porousBandAbsorption(layer, { evaluation: 'band-average', incidence: 'normal' }).coefficients;
+		PLANNING_BANDS_HZ.forEach((fc, i) => {
+			expect(random[i]).toBeCloseTo(mean(points(fc).map((f) => randomIncidenceAbsorption(layer, f))), 12);
+			expect(normal[i]).toBeCloseTo(mean(points(fc).map((f) => normalIncidenceAbsorption(layer, f))), 12);
+		});
+	});
+
 	it.each([
 		[{ flowResistivity: 0, thicknessM: D }, /flow resistivity/],
 		[{ flowResistivity: SIGMA, thicknessM: -0.01 }, /thickness/],
