@@ -104,8 +104,8 @@ export function diffuserBuildSheet(design: DiffuserDesign, options: DiffuserBuil
 	const geometry = diffuserGeometry(design, { construction, heightMm: options.heightMm, boardMm: b, finMm: options.finThicknessMm });
 	const comparison =
 		construction === 'low-waste'
-			? `Low-waste construction: ${boards['low-waste'].boardAreaM2.toFixed(2)} m² of board against ${boards['full-depth'].boardAreaM2.toFixed(2)} m² for the full-depth box, ${savingPct.toFixed(0)} % less.`
-			: `The low-waste construction (parts sized to their wells) would take ${boards['low-waste'].boardAreaM2.toFixed(2)} m² of board instead of ${boards['full-depth'].boardAreaM2.toFixed(2)} m², ${savingPct.toFixed(0)} % less.`;
+			? `Low-waste construction: ${savingPct.toFixed(0)} % less board than the full-depth box (both are compared below).`
+			: `The low-waste construction (parts sized to their wells) would take ${savingPct.toFixed(0)} % less board (both are compared below).`;
 	const acoustics =
 		'Acoustics: both constructions put every well bottom at its design depth and keep the clear well width, so the diffusion is the same; what lies behind a well bottom is not part of the well as long as the bottom is rigid and sealed to its fins.';
 	return {

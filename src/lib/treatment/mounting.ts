@@ -37,7 +37,7 @@ export interface MountingPlan {
 	/** Pieces of one unit's mounting (cut with the unit's parts). */
 	parts: Part[];
 	/** Screws: how many and where. */
-	fixings: { count: number; where: string }[];
+	fixings: { count: number; where: string; /** No two screws further apart than this, mm. */ spacingMm?: number }[];
 	notes: string[];
 	/** Screwed blocks: their positions across the panel (left edge, mm) and how many at each. */
 	blockXsMm: number[];
@@ -62,7 +62,7 @@ export function mountingPlan(method: MountingMethod, u: MountingUnit): MountingP
 			method,
 			parts: [cleat('wall cleat'), cleat('panel cleat'), { name: 'bottom spacer', quantity: 1, lengthMm: round1(length), widthMm: 40, thicknessMm: u.boardMm, finishedFaces: 0, grain: 'along-length', note: 'keeps the panel plumb: as thick as the cleat pair' }],
 			fixings: [
-				{ count: wallScrews, where: `through the wall cleat into the structure, at most ${SCREW_SPACING_MM} mm apart (at every stud)` },
+				{ count: wallScrews, where: 'through the wall cleat into the structure, at every stud', spacingMm: SCREW_SPACING_MM },
 				{ count: wallScrews, where: 'through the panel cleat into the panel, bevel down and facing the wall' }
 			],
 			notes: ['The panel lifts off its cleat; nothing to unscrew. Fit the wall cleat level, bevel up and facing the wall.'],

@@ -12,6 +12,7 @@ describe('removable mounting', () => {
 		expect(m.parts.map((p) => [p.name, p.lengthMm])).toEqual([['wall cleat', 520], ['panel cleat', 520], ['bottom spacer', 520]]);
 		// Hand: ⌈520/400⌉ + 1 = 3 screws, 260 mm apart.
 		expect(m.fixings[0].count).toBe(3);
+		expect(m.fixings[0].spacingMm).toBe(SCREW_SPACING_MM);
 		// 1200 mm panel: 1120 mm cleat → ⌈1120/400⌉ + 1 = 4 screws, 373 mm apart.
 		const wide = mountingPlan('french-cleat', { widthMm: 1200, heightMm: 600, boardMm: 18 });
 		expect(wide.fixings[0].count).toBe(4);
