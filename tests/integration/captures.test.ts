@@ -254,6 +254,15 @@ describe('bad input is refused and leaves nothing behind', () => {
 		const after = await k('captures').where({ id }).first();
 		expect(after.status).toBe('failed');
 		expect(after.error).toMatch(/peak-to-noise|noise/i);
+		// Its page says why and offers no band-value downloads; asked for anyway, they are refused with the reason.
+		const page = await acoustician.get(`/captures/${id}`);
+		expect(page.status).toBe(200);
+		const html = await page.text();
+		expect(html).toContain('This capture could not be analysed');
+		expect(html).not.toContain(`/api/captures/${id}/export`);
+		const exported = await acoustician.get(`/api/captures/${id}/export?format=csv`);
+		expect(exported.status).toBe(409);
+		expect(await exported.text()).toContain('could not be analysed');
 	});
 });
 

@@ -1,6 +1,6 @@
 // What pages and API routes read about captures: their views, stored results and files.
 import { db } from '../db';
-import { notFound } from '../problem';
+import { conflict, notFound } from '../problem';
 import { storage, type Storage } from '../storage';
 import { getAnalysis, getAnalysisMetrics, type StoredAnalysis, type StoredMetrics } from '../queries/analyses';
 import { analysisSummaries, getCapture } from '../queries/captures';
@@ -34,12 +34,17 @@ export async function storedAnalysis(captureId: number): Promise<StoredAnalysis>
 	return analysis;
 }
 
-/** A capture's per-band metrics, with its file name to name the export after. */
+/**
+ * A capture's per-band metrics, with its file name to name the export after. A failed capture keeps
+ * its numbers for the quality notes, but they are not exported as results.
+ */
 export async function captureMetrics(captureId: number): Promise<{ filename: string; metrics: StoredMetrics }> {
 	const k = db();
+	const capture = (await getCapture(k, captureId))!;
+	if (capture.status === 'failed') throw conflict('This capture could not be analysed, so it has no band values to export; its page says why.', { code: 'capture_failed' });
 	const metrics = await getAnalysisMetrics(k, captureId);
 	if (!metrics) throw notFound(NO_ANALYSIS);
-	return { filename: (await getCapture(k, captureId))!.filename, metrics };
+	return { filename: capture.filename, metrics };
 }
 
 /** A short-lived link to the original file (the object key itself stays random and unseen). */
