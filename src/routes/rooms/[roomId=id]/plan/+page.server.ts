@@ -22,8 +22,8 @@ export const load = (async ({ locals, params, url }) => {
 		problemBands,
 		proposals: band ? { band, ...proposalsForBand(band) } : null,
 		materials: [
-			...MATERIALS.map((m) => ({ key: m.id, name: m.name, group: m.confidence === 'published' ? 'Published' : 'Handbook (from memory)', coefficients: m.coefficients, source: m.source })),
-			...view.customMaterials.map((m) => ({ key: m.id, name: m.name, group: 'Practice materials', coefficients: m.coefficients, source: m.source }))
+			...MATERIALS.map((m) => ({ key: m.id, name: m.name, group: m.confidence === 'published' ? 'Published tables' : 'Typical handbook values (verify)', coefficients: m.coefficients, source: m.source })),
+			...view.customMaterials.map((m) => ({ key: m.id, name: m.name, group: 'Practice materials (datasheets)', coefficients: m.coefficients, source: m.source }))
 		],
 		unit: planUnit(url.searchParams, scope),
 		can: { edit: roleAllows(scope.role, 'review:write') }
