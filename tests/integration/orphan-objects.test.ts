@@ -82,4 +82,16 @@ describe('the orphaned-object sweep', () => {
 		const confirmed = await acoustician.request('POST', `/api/captures/${pending.capture.id}/uploaded`, { headers: { accept: 'application/json' } });
 		expect(confirmed.status, await confirmed.clone().text()).toBe(200);
 	});
+
+	it('looks after calibrator recordings too: an orphaned one goes, the ones input chains name stay', async () => {
+		const orphan = newObjectKey('calibrators');
+		const tone = decayWav({ seed: 9002, durationS: 0.2 });
+		await s3.put(orphan, tone, 'audio/wav', tone.byteLength);
+		// The demo seeds calibrated visits (scripts/demo/seed-calibration.ts): their recordings are named by rows.
+		const named = (await k('input_chains').whereNotNull('calibrator_object_key').pluck('calibrator_object_key')) as string[];
+		expect(named.length).toBeGreaterThan(0);
+		await removeOrphanObjects(k, s3, new Date(Date.now() + 60_000));
+		expect(await exists(orphan)).toBe(false);
+		for (const key of named) expect(await exists(key), key).toBe(true);
+	});
 });

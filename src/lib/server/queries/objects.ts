@@ -8,7 +8,8 @@ import type { Knex } from 'knex';
 export const OBJECT_KEY_COLUMNS: Record<string, { table: string; column: string }[]> = {
 	'captures/': [{ table: 'captures', column: 'object_key' }],
 	'references/': [{ table: 'captures', column: 'reference_object_key' }],
-	'sweeps/': [{ table: 'sweep_definitions', column: 'object_key' }]
+	'sweeps/': [{ table: 'sweep_definitions', column: 'object_key' }],
+	'calibrators/': [{ table: 'input_chains', column: 'calibrator_object_key' }]
 };
 
 /** Of these keys under one prefix, the ones some row still names. */
