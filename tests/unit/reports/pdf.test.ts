@@ -86,7 +86,7 @@ describe('renderReportPdf: a typical before/after report', () => {
 	});
 
 	it('labels the chart axes with units', () => {
-		for (const label of ['Frequency (Hz)', 'Level (dB)', 'T30 (s)', 'C80 (dB)', 'Octave band (Hz)']) expect(text).toContain(label);
+		for (const label of ['Frequency (Hz)', 'Level, dB (relative)', 'T30 (s)', 'C80 (dB)', 'Octave band (Hz)']) expect(text).toContain(label);
 		// Octave ticks of the frequency axis, ISO 266 nominal values.
 		for (const tick of ['31.5', '63', '125', '250', '500', '1k', '2k', '4k', '8k', '16k']) expect(pdf.text).toMatch(new RegExp(`(^|\\s)${tick.replace('.', '\\.')}(\\s|$)`, 'm'));
 	});

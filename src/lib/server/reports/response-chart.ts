@@ -67,7 +67,7 @@ export function drawResponseChart(pen: ReportPen, box: ChartBox, input: Response
 		pen,
 		plot,
 		{ scale: x, title: 'Frequency (Hz)', ticks: octaveTicks(...FREQUENCY_DOMAIN).map((f) => ({ value: f, label: formatHzAxis(f) })) },
-		{ scale: y, title: 'Level (dB)', ticks: linearTicks(dbLo, dbHi, DB_GRID).map((v) => ({ value: v, label: formatNumber(v, 0) })) }
+		{ scale: y, title: 'Level, dB (relative)', ticks: linearTicks(dbLo, dbHi, DB_GRID).map((v) => ({ value: v, label: formatNumber(v, 0) })) }
 	);
 
 	const unclipLines = clipToPlot(pen, plot);
