@@ -59,9 +59,8 @@ export interface PositionInput {
 	micZ: number | null;
 }
 
-export async function createPosition(k: Knex, sessionId: number, p: PositionInput): Promise<number> {
-	const [id] = await k('positions').insert({
-		session_id: sessionId,
+function columnsOf(p: PositionInput) {
+	return {
 		label: p.label,
 		source_label: p.sourceLabel,
 		mic_label: p.micLabel,
@@ -71,22 +70,16 @@ export async function createPosition(k: Knex, sessionId: number, p: PositionInpu
 		mic_x_m: p.micX,
 		mic_y_m: p.micY,
 		mic_z_m: p.micZ
-	});
+	};
+}
+
+export async function createPosition(k: Knex, sessionId: number, p: PositionInput): Promise<number> {
+	const [id] = await k('positions').insert({ session_id: sessionId, ...columnsOf(p) });
 	return id;
 }
 
 export async function updatePosition(k: Knex, id: number, p: PositionInput): Promise<void> {
-	await k('positions').where({ id }).update({
-		label: p.label,
-		source_label: p.sourceLabel,
-		mic_label: p.micLabel,
-		source_x_m: p.sourceX,
-		source_y_m: p.sourceY,
-		source_z_m: p.sourceZ,
-		mic_x_m: p.micX,
-		mic_y_m: p.micY,
-		mic_z_m: p.micZ
-	});
+	await k('positions').where({ id }).update(columnsOf(p));
 }
 
 /** Remove a position that holds no capture, locking it so an upload cannot land in it meanwhile. */
