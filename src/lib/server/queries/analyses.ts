@@ -58,3 +58,62 @@ export async function analysedCapturesOfSession(
 		curves: readJson(r.curves)
 	}));
 }
+
+export interface AnalysedCaptureRow {
+	captureId: number;
+	positionLabel: string;
+	sourceLabel: string | null;
+	micLabel: string | null;
+	/** The stored result: a re-analysis replaces the row, so these change with it. */
+	analysisId: number;
+	engineVersion: string;
+	analysedAt: string;
+}
+
+/** The analysed captures of a visit without their stored JSON, newest first within each position label. */
+export async function analysedCaptureRowsOfSession(k: Knex, sessionId: number): Promise<AnalysedCaptureRow[]> {
+	const rows = await k('captures as c')
+		.join('positions as po', 'po.id', 'c.position_id')
+		.join('analyses as a', 'a.capture_id', 'c.id')
+		.where({ 'c.session_id': sessionId, 'c.status': 'analysed' })
+		.orderBy('po.label')
+		.orderBy('c.id', 'desc')
+		.select('c.id', 'po.label', 'po.source_label', 'po.mic_label', 'a.id as analysis_id', 'a.engine_version', 'a.created_at');
+	return rows.map((r) => ({
+		captureId: r.id,
+		positionLabel: r.label,
+		sourceLabel: r.source_label ?? null,
+		micLabel: r.mic_label ?? null,
+		analysisId: r.analysis_id,
+		engineVersion: r.engine_version,
+		analysedAt: r.created_at instanceof Date ? r.created_at.toISOString() : String(r.created_at)
+	}));
+}
+
+/**
+ * The metrics and the two response curves the results pages draw, of these stored analyses: the
+ * rest of the curves (decays, energy–time, waterfall — most of the column) is left in the database.
+ */
+export async function responseInputsOfAnalyses(
+	k: Knex,
+	analysisIds: number[]
+): Promise<Map<number, { metrics: StoredMetrics; curves: Pick<AnalysisCurves, 'frequencyResponse' | 'frequencyResponseSmoothed'> }>> {
+	if (analysisIds.length === 0) return new Map();
+	const rows = await k('analyses')
+		.whereIn('id', analysisIds)
+		.select('id', 'metrics', k.raw("JSON_EXTRACT(curves, '$.frequencyResponse') as response"), k.raw("JSON_EXTRACT(curves, '$.frequencyResponseSmoothed') as smoothed"));
+	return new Map(
+		rows.map((r) => [
+			r.id as number,
+			{ metrics: readJson<StoredMetrics>(r.metrics), curves: { frequencyResponse: readJson(r.response), frequencyResponseSmoothed: readJson(r.smoothed) } }
+		])
+	);
+}
+
+/** Names the stored result of a capture: a re-analysis replaces the row, so the name changes with it. */
+export async function analysisStamp(k: Knex, captureId: number): Promise<string | undefined> {
+	const r = await k('analyses').where({ capture_id: captureId }).first('id', 'engine_version', 'created_at');
+	if (!r) return undefined;
+	const at = r.created_at instanceof Date ? r.created_at.getTime() : String(r.created_at);
+	return `${r.id}-${at}-${r.engine_version}`;
+}

@@ -8,7 +8,7 @@ import { hasSharedPlan } from '../queries/plans';
 import { getProject } from '../queries/projects';
 import { getRoom } from '../queries/rooms';
 import { analysisSummaries } from '../queries/captures';
-import { loadComparisonModel } from './load';
+import { loadComparisonModel, withoutRawLevels } from './load';
 import type { Scope } from '../auth/access';
 import type { ComparisonModel, SessionSummary } from '../../results/types';
 import { roleAllows } from '../../roles';
@@ -19,13 +19,14 @@ import { unitOfSystem } from '../../schemas/treatment';
 /**
  * Pages draw the averaged responses with every smoothing, and a matched position's own response
  * only at 1/6 octave (to overlay chosen positions), so the rest of each position's curves is left
- * out of what is sent to the browser (with 2 × 12 positions they are most of the payload).
+ * out of what is sent to the browser (with 2 × 12 positions they are most of the payload), and so
+ * are the averages' unsmoothed levels.
  */
 function withoutPositionCurves(model: ComparisonModel): ComparisonModel {
 	const matched = new Set(model.matchedPositions);
 	const none = { freqHz: [], db: [], smoothed: { '1': [], '3': [], '6': [], '12': [], '24': [] } };
 	const slim = (s: SessionSummary): SessionSummary => ({
-		...s,
+		...withoutRawLevels(s),
 		positions: s.positions.map((p) => ({
 			...p,
 			response: matched.has(p.positionLabel) ? { freqHz: p.response.freqHz, db: [], smoothed: { ...none.smoothed, '6': p.response.smoothed['6'] } } : none

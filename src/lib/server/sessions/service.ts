@@ -11,7 +11,7 @@ import { listProblemBands } from '../queries/reviews';
 import { getRoom } from '../queries/rooms';
 import { getSession } from '../queries/sessions';
 import { listSweeps } from '../queries/sweeps';
-import { loadSessionSummary } from '../results/load';
+import { loadSessionSummary, withoutRawLevels } from '../results/load';
 import { sessionCaptureViews } from '../captures/views';
 import { roleAllows } from '../../roles';
 
@@ -32,7 +32,7 @@ export async function visitPage(scope: Scope, sessionId: number) {
 	]);
 	return {
 		captures,
-		summary,
+		summary: summary && withoutRawLevels(summary),
 		problemBands,
 		sweeps: sweeps.map((s) => ({ id: s.id, name: s.name, durationS: s.durationS })),
 		session,
