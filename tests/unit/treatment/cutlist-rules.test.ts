@@ -112,6 +112,11 @@ describe('leftovers, areas and sheet numbers, by hand', () => {
 		expect(r.offcuts.some((o) => o.y === 0 && o.widthMm === 200)).toBe(kept);
 	});
 
+	it('no parts: no sheets, and a yield of 0 %, not 0/0', () => {
+		const r = cutList([], [SHEET]);
+		expect(r).toMatchObject({ sheetsUsed: 0, partsAreaMm2: 0, sheetsAreaMm2: 0, yieldPct: 0, offcuts: [] });
+	});
+
 	it('sheets are numbered from 1 per stock; each counts only its own parts', () => {
 		// Three 1220 × 2440 parts (whole sheets) need three sheets.
 		const r = cutList([part({ quantity: 3, lengthMm: 2440, widthMm: 1220 })], [SHEET]);
