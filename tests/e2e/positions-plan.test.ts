@@ -38,7 +38,8 @@ describe('the plan view of a visit', () => {
 		expect(await row.innerText()).toContain('3.00, 2.00, 1.10');
 
 		// Drag the microphone half a metre towards the back wall (down the plan: +x).
-		const metresPerPixel = await plan.locator('svg').evaluate((el) => (el as unknown as SVGSVGElement).viewBox.baseVal.width / el.getBoundingClientRect().width);
+		// The drawing's own scale (the plan keeps the room's proportions inside its box).
+		const metresPerPixel = await plan.locator('svg').evaluate((el) => 1 / (el as unknown as SVGSVGElement).getScreenCTM()!.a);
 		// The label sits right of the circle: grab the circle itself.
 		const circle = (await mic.locator('circle').boundingBox())!;
 		const from = { x: circle.x + circle.width / 2, y: circle.y + circle.height / 2 };
