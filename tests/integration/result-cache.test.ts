@@ -122,6 +122,9 @@ describe('cached results', () => {
 		}
 		expect(summary.averageResponse!.smoothed).toEqual(reference.averageResponse!.smoothed);
 		expect(summary.statistics).toEqual(reference.statistics);
+		// One frequency grid, sent once.
+		expect(summary.positions[1].response.freqHz).toBe(summary.positions[0].response.freqHz);
+		expect(summary.averageResponse!.freqHz).toBe(summary.positions[0].response.freqHz);
 	});
 
 	it('the analysis JSON carries an entity tag: the same result is answered 304 without a body, a new analysis 200 with a new tag', async () => {

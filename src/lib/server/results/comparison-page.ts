@@ -25,13 +25,16 @@ import { unitOfSystem } from '../../schemas/treatment';
 function withoutPositionCurves(model: ComparisonModel): ComparisonModel {
 	const matched = new Set(model.matchedPositions);
 	const none = { freqHz: [], db: [], smoothed: { '1': [], '3': [], '6': [], '12': [], '24': [] } };
-	const slim = (s: SessionSummary): SessionSummary => ({
-		...withoutRawLevels(s),
-		positions: s.positions.map((p) => ({
-			...p,
-			response: matched.has(p.positionLabel) ? { freqHz: p.response.freqHz, db: [], smoothed: { ...none.smoothed, '6': p.response.smoothed['6'] } } : none
-		}))
-	});
+	const slim = (whole: SessionSummary): SessionSummary => {
+		const s = withoutRawLevels(whole);
+		return {
+			...s,
+			positions: s.positions.map((p) => ({
+				...p,
+				response: matched.has(p.positionLabel) ? { freqHz: p.response.freqHz, db: [], smoothed: { ...none.smoothed, '6': p.response.smoothed['6'] } } : none
+			}))
+		};
+	};
 	return { ...model, baseline: slim(model.baseline), treated: slim(model.treated) };
 }
 

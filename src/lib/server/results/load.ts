@@ -87,12 +87,20 @@ export async function loadComparisonModel(k: Knex, c: ComparisonRow): Promise<Co
 
 /**
  * A visit's summary as pages draw it: the response charts plot only the smoothed curves, so the
- * unsmoothed levels (a seventh of each response) are not sent; exports use the whole summary.
+ * unsmoothed levels (a seventh of each response) are not sent, and responses on the same
+ * frequencies share one array, which the page data then carries once; exports use the whole summary.
  */
 export function withoutRawLevels(s: SessionSummary): SessionSummary {
+	const grids: number[][] = [];
+	const shared = (freqHz: number[]) => {
+		const same = grids.find((g) => g.length === freqHz.length && g.every((f, i) => f === freqHz[i]));
+		if (same) return same;
+		grids.push(freqHz);
+		return freqHz;
+	};
 	return {
 		...s,
-		positions: s.positions.map((p) => ({ ...p, response: { ...p.response, db: [] } })),
-		averageResponse: s.averageResponse && { ...s.averageResponse, db: [] }
+		positions: s.positions.map((p) => ({ ...p, response: { ...p.response, freqHz: shared(p.response.freqHz), db: [] } })),
+		averageResponse: s.averageResponse && { ...s.averageResponse, freqHz: shared(s.averageResponse.freqHz), db: [] }
 	};
 }
