@@ -43,6 +43,13 @@ describe('printed pages', () => {
 		for (const units of ['mm', 'in']) {
 			await page.goto(`${new URL(page.url()).pathname}?units=${units}`);
 			await page.waitForLoadState('networkidle');
+			if (units === 'in') {
+				// Part names, notes and assembly steps speak the chosen unit (1 in = 25.4 mm): no "… mm" left.
+				// (The fixing notes are the user's own words, kept as typed, so they are not looked at.)
+				const sheets = await page.getByTestId('build-sheet').evaluateAll((els) => els.map((el) => [...el.querySelectorAll('table, [data-testid="assembly-step"], [data-testid="mounting"] ul')].map((n) => (n as HTMLElement).innerText).join('\n')));
+				expect(sheets.length).toBeGreaterThan(0);
+				for (const text of sheets) expect(text).not.toMatch(/\d mm\b/);
+			}
 			const printed = await asPrinted(page);
 			expect(printed.tooWide, units).toEqual([]);
 			expect(printed.controls, units).toEqual([]);

@@ -22,6 +22,19 @@ export function thicknessText(mm: number, unit: LengthUnit): string {
 	return unit === 'in' ? formatInches(mmToInches(mm), 32) : `${trimmed(mm, 1)} mm`;
 }
 
+const NUMBER = String.raw`\d+(?:\.\d+)?`;
+/** "12 × 34 × 5 mm", "12 × 34 mm", "0, 49, 196 mm" or "138 mm": the numbers before one "mm". */
+const MM_RUN = new RegExp(String.raw`(?<![\w.])(${NUMBER}(?:(?: × |, )${NUMBER})*) mm\b`, 'g');
+
+/**
+ * A sentence written in millimetres (part names, notes, build steps) in the user's unit: with
+ * inches, every "N mm" — and each number of "A × B mm" or "A, B, C mm" — becomes inches to 1/16″.
+ */
+export function localiseLengths(text: string, unit: LengthUnit): string {
+	if (unit !== 'in') return text;
+	return text.replace(MM_RUN, (_, run: string) => run.replace(new RegExp(NUMBER, 'g'), (n) => lengthText(Number(n), 'in')));
+}
+
 /** A length as a form shows it, so that submitting it unchanged gives the same length back. */
 export function lengthInput(mm: number, unit: LengthUnit): string {
 	if (unit === 'in') return formatInches(mmToInches(mm), 32).replace('″', ' in');
