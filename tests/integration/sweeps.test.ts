@@ -72,7 +72,9 @@ describe('test signals', () => {
 		const a = (await res.json()) as { capture: { id: number }; upload: { url: string; headers: Record<string, string> } };
 		await fetch(a.upload.url, { method: 'PUT', headers: a.upload.headers, body: recorded });
 		expect((await acoustician.request('POST', `/api/captures/${a.capture.id}/uploaded`)).status).toBe(200);
-		for (let i = 0; i < 40 && (await runNextJob(k, s3, { owner: 'sweep-test' })); i++);
+		// Run the queue until this capture is settled (jobs queued by earlier files may come first).
+		const settled = async () => ['analysed', 'failed'].includes((await k('captures').where({ id: a.capture.id }).first('status')).status);
+		for (let i = 0; i < 400 && !(await settled()) && (await runNextJob(k, s3, { owner: 'sweep-test' })); i++);
 		const row = await k('captures').where({ id: a.capture.id }).first();
 		expect(row.status, row.error).toBe('analysed');
 		const metrics = readJson<{ broadband: { t30S: number }; deconvolution: { f1Hz: number } }>((await k('analyses').where({ capture_id: a.capture.id }).first()).metrics);
