@@ -12,8 +12,7 @@ export interface GradeRequirement {
 }
 
 /**
- * Minimum numbers per grade, ISO 3382-2:2008 Table 1 (from memory; a published transcription
- * of the table agrees): survey 1 source, 2 microphone positions, 2 combinations; engineering 2,
+ * Minimum numbers per grade, ISO 3382-2:2008 Table 1 (from memory): survey 1 source, 2 microphone positions, 2 combinations; engineering 2,
  * 2, 6; precision 2, 3, 12. The table's row of decays per position (1, 2, 3) is for the
  * interrupted-noise method and does not apply to impulse responses; its footnotes are not
  * modelled, nor the spacing rules of the same clause (distances between positions and from

@@ -59,7 +59,7 @@ function zeroPhaseAttenuationDb(sos: Float64Array, frequencyHz: number, midHz: n
 }
 
 /**
- * IEC 61260-1:2014 class 1 limits for octave filters at Ω = G^e (two independent transcriptions of the standard's table agree; not re-checked against the standard's own text).
+ * IEC 61260-1:2014 class 1 limits for octave filters at Ω = G^e, Table 1 (from memory).
  * min/max relative attenuation in dB; max = Infinity where only a minimum applies.
  */
 const CLASS_1_OCTAVE = [
