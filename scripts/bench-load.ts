@@ -10,6 +10,7 @@
 import autocannon from 'autocannon';
 import { parseArgs } from 'node:util';
 import { assertLoopback } from './probe/raw-http';
+import { fetchPage, linksOf, signIn as signInAs } from './probe/signed-in';
 
 const { values, positionals } = parseArgs({
 	allowPositionals: true,
@@ -28,29 +29,8 @@ const base = assertLoopback(positionals[0] ?? 'http://127.0.0.1:3000');
 const connections = Math.min(100, Math.max(1, Number(values.connections) || 10));
 const duration = Math.min(120, Math.max(1, Number(values.duration) || 15));
 
-async function signIn(): Promise<string> {
-	const answer = await fetch(new URL('/signin', base), {
-		method: 'POST',
-		redirect: 'manual',
-		headers: { origin: base.origin, 'content-type': 'application/x-www-form-urlencoded', accept: 'text/html' },
-		body: new URLSearchParams({ email: values.email!, password: values.password!, redirectTo: '/projects' })
-	});
-	const cookie = answer.headers
-		.getSetCookie()
-		.map((c) => c.split(';')[0])
-		.filter((c) => !c.endsWith('='))
-		.join('; ');
-	if (answer.status !== 303 || !cookie.includes('session-token')) throw new Error(`sign-in as ${values.email} answered ${answer.status}`);
-	return cookie;
-}
-
-async function page(cookie: string, path: string): Promise<string> {
-	const answer = await fetch(new URL(path, base), { headers: { cookie, accept: 'text/html' }, redirect: 'manual' });
-	if (answer.status !== 200) throw new Error(`GET ${path} answered ${answer.status}`);
-	return answer.text();
-}
-
-const linksOf = (html: string, prefix: string) => [...new Set([...html.matchAll(new RegExp(`href="(${prefix}/\\d+)"`, 'g'))].map((m) => m[1]))];
+const signIn = () => signInAs(base, values.email!, values.password!);
+const page = (cookie: string, path: string) => fetchPage(base, cookie, path);
 
 /** A visit with analysed captures and a comparison the user can open, found through the pages' links. */
 async function findTargets(cookie: string): Promise<{ session?: string; comparison?: string }> {

@@ -11,6 +11,7 @@
 import autocannon from 'autocannon';
 import { parseArgs } from 'node:util';
 import { assertLoopback, listeningPid, residentBytes, watchMemory } from './probe/raw-http';
+import { fetchPage, linksOf, signIn as signInAs } from './probe/signed-in';
 
 const { values, positionals } = parseArgs({
 	allowPositionals: true,
@@ -37,29 +38,8 @@ const MiB = 1024 * 1024;
 const mib = (b: number | null | undefined) => (b == null ? '—' : `${(b / MiB).toFixed(0)} MiB`);
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
-async function signIn(): Promise<string> {
-	const answer = await fetch(new URL('/signin', base), {
-		method: 'POST',
-		redirect: 'manual',
-		headers: { origin: base.origin, 'content-type': 'application/x-www-form-urlencoded', accept: 'text/html' },
-		body: new URLSearchParams({ email: values.email!, password: values.password!, redirectTo: '/projects' })
-	});
-	const cookie = answer.headers
-		.getSetCookie()
-		.map((c) => c.split(';')[0])
-		.filter((c) => !c.endsWith('='))
-		.join('; ');
-	if (answer.status !== 303 || !cookie.includes('session-token')) throw new Error(`sign-in as ${values.email} answered ${answer.status}`);
-	return cookie;
-}
-
-async function page(cookie: string, path: string): Promise<string> {
-	const answer = await fetch(new URL(path, base), { headers: { cookie, accept: 'text/html' }, redirect: 'manual' });
-	if (answer.status !== 200) throw new Error(`GET ${path} answered ${answer.status}`);
-	return answer.text();
-}
-
-const linksOf = (html: string, prefix: string) => [...new Set([...html.matchAll(new RegExp(`href="(${prefix}/\\d+)"`, 'g'))].map((m) => m[1]))];
+const signIn = () => signInAs(base, values.email!, values.password!);
+const page = (cookie: string, path: string) => fetchPage(base, cookie, path);
 
 /** A visit, a comparison and a capture the user can open, found through the pages' links. */
 async function findTargets(cookie: string): Promise<{ session?: string; comparison?: string; capture?: string }> {
