@@ -1,6 +1,8 @@
 // A small HTTP client for the running test server: keeps cookies, sends the Origin header
 // SvelteKit's CSRF check expects, never follows redirects (tests assert them).
+import type { Knex } from 'knex';
 import { BASE_URL } from './env';
+import { makeOrganization, makeProjectTree, makeUser, TEST_PASSWORD, type ProjectTree } from './factories';
 
 export class Client {
 	private cookies = new Map<string, string>();
@@ -60,4 +62,12 @@ export async function signedInClient(email: string, password: string): Promise<C
 	const res = await c.signIn(email, password);
 	if (res.status !== 303 || !c.signedIn) throw new Error(`Sign-in of ${email} failed with ${res.status}`);
 	return c;
+}
+
+/** A fresh organization's project tree and a signed-in acoustician of it: the upload tests' start. */
+export async function acousticianWithProject(k: Knex): Promise<{ tree: ProjectTree; acoustician: Client }> {
+	const org = await makeOrganization(k);
+	const user = await makeUser(k, org, 'acoustician');
+	const tree = await makeProjectTree(k, org);
+	return { tree, acoustician: await signedInClient(user.email, TEST_PASSWORD) };
 }

@@ -3,8 +3,8 @@ import type { Knex } from 'knex';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { testDb } from '../helpers/db';
-import { makeOrganization, makeProjectTree, makeUser, TEST_PASSWORD, type ProjectTree } from '../helpers/factories';
-import { Client, signedInClient } from '../helpers/http';
+import { makeOrganization, makeUser, TEST_PASSWORD, type ProjectTree } from '../helpers/factories';
+import { acousticianWithProject, Client, signedInClient } from '../helpers/http';
 import { decayWav, sha256 } from '../helpers/wav';
 import { encodeWav } from '../../src/lib/analysis';
 import { createStorage } from '../../src/lib/server/storage';
@@ -68,10 +68,7 @@ async function drain(captureIds: number[], storage = s3, limit = 60): Promise<vo
 
 beforeAll(async () => {
 	k = testDb();
-	const org = await makeOrganization(k);
-	const user = await makeUser(k, org, 'acoustician');
-	tree = await makeProjectTree(k, org);
-	acoustician = await signedInClient(user.email, TEST_PASSWORD);
+	({ tree, acoustician } = await acousticianWithProject(k));
 });
 afterAll(async () => k.destroy());
 

@@ -4,8 +4,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Knex } from 'knex';
 import { testDb } from '../helpers/db';
-import { makeOrganization, makeProjectTree, makeUser, TEST_PASSWORD, type ProjectTree } from '../helpers/factories';
-import { signedInClient, type Client } from '../helpers/http';
+import { type ProjectTree } from '../helpers/factories';
+import { acousticianWithProject, type Client } from '../helpers/http';
 import { decayWav, sha256 } from '../helpers/wav';
 
 let k: Knex;
@@ -39,10 +39,7 @@ async function upload(client: Client, sessionId: number, wav: Uint8Array, placem
 
 beforeAll(async () => {
 	k = testDb();
-	const org = await makeOrganization(k);
-	const user = await makeUser(k, org, 'acoustician');
-	tree = await makeProjectTree(k, org);
-	acoustician = await signedInClient(user.email, TEST_PASSWORD);
+	({ tree, acoustician } = await acousticianWithProject(k));
 });
 afterAll(async () => {
 	// The 50-odd analyses queued here are not this file's subject: drop them, so later files that run

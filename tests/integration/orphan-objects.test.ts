@@ -4,8 +4,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Knex } from 'knex';
 import { testDb } from '../helpers/db';
-import { makeOrganization, makeProjectTree, makeUser, TEST_PASSWORD, type ProjectTree } from '../helpers/factories';
-import { signedInClient, type Client } from '../helpers/http';
+import { type ProjectTree } from '../helpers/factories';
+import { acousticianWithProject, type Client } from '../helpers/http';
 import { decayWav, sha256 } from '../helpers/wav';
 import { createStorage, newObjectKey } from '../../src/lib/server/storage';
 import { loadConfig } from '../../src/lib/server/config';
@@ -30,10 +30,7 @@ const put = (a: { upload: { url: string; headers: Record<string, string> } }, bo
 
 beforeAll(async () => {
 	k = testDb();
-	const org = await makeOrganization(k);
-	const user = await makeUser(k, org, 'acoustician');
-	tree = await makeProjectTree(k, org);
-	acoustician = await signedInClient(user.email, TEST_PASSWORD);
+	({ tree, acoustician } = await acousticianWithProject(k));
 });
 afterAll(async () => k.destroy());
 

@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Knex } from 'knex';
 import { testDb } from '../helpers/db';
-import { makeOrganization, makeProjectTree, makeUser, TEST_PASSWORD, type ProjectTree } from '../helpers/factories';
-import { Client, signedInClient } from '../helpers/http';
+import { type ProjectTree } from '../helpers/factories';
+import { acousticianWithProject, Client } from '../helpers/http';
 import { decayWav, sha256 } from '../helpers/wav';
 import { createStorage } from '../../src/lib/server/storage';
 import { loadConfig } from '../../src/lib/server/config';
@@ -50,10 +50,7 @@ async function upload(wav: Uint8Array): Promise<{ id: number; objectKey: string;
 
 beforeAll(async () => {
 	k = testDb();
-	const org = await makeOrganization(k);
-	const user = await makeUser(k, org, 'acoustician');
-	tree = await makeProjectTree(k, org);
-	acoustician = await signedInClient(user.email, TEST_PASSWORD);
+	({ tree, acoustician } = await acousticianWithProject(k));
 });
 afterAll(async () => k.destroy());
 
