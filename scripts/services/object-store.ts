@@ -1,3 +1,4 @@
+/// <reference path="./s3rver.d.ts" />
 // The local S3-compatible fake (s3rver) on 127.0.0.1. The app only ever talks to it through
 // @aws-sdk/client-s3, so a real S3-compatible service is a configuration change.
 import { mkdirSync } from 'node:fs';
