@@ -27,6 +27,7 @@ export type Target =
 	| { sessionId: number }
 	| { positionId: number }
 	| { captureId: number }
+	| { photoId: number }
 	| { comparisonId: number }
 	| { problemBandId: number }
 	| { sweepId: number };

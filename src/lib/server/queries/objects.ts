@@ -9,7 +9,11 @@ export const OBJECT_KEY_COLUMNS: Record<string, { table: string; column: string 
 	'captures/': [{ table: 'captures', column: 'object_key' }],
 	'references/': [{ table: 'captures', column: 'reference_object_key' }],
 	'sweeps/': [{ table: 'sweep_definitions', column: 'object_key' }],
-	'calibrators/': [{ table: 'input_chains', column: 'calibrator_object_key' }]
+	'calibrators/': [{ table: 'input_chains', column: 'calibrator_object_key' }],
+	'photos/': [
+		{ table: 'visit_photos', column: 'display_key' },
+		{ table: 'visit_photos', column: 'thumb_key' }
+	]
 };
 
 /** Of these keys under one prefix, the ones some row still names. */

@@ -14,12 +14,14 @@ const CHAINS = {
 	sessionId: ['sessions', 'rooms'],
 	positionId: ['positions', 'sessions', 'rooms'],
 	captureId: ['captures', 'sessions', 'rooms'],
+	photoId: ['visit_photos', 'sessions', 'rooms'],
 	comparisonId: ['comparisons', 'rooms'],
 	problemBandId: ['problem_bands', 'rooms']
 } as const;
 const PARENT_KEY: Record<string, string> = {
 	positions: 'session_id',
 	captures: 'session_id',
+	visit_photos: 'session_id',
 	sessions: 'room_id',
 	comparisons: 'room_id',
 	problem_bands: 'room_id',
