@@ -1,6 +1,7 @@
 // See https://svelte.dev/docs/kit/types#app.d.ts
 import type { Membership, SessionUser } from '$lib/server/auth/access';
 import type { SessionToken } from '$lib/server/auth/session-user';
+import type { TokenScope } from '$lib/roles';
 
 declare global {
 	namespace App {
@@ -15,6 +16,8 @@ declare global {
 			memberships: Membership[];
 			/** The session of the signed-in user (null when signed out), to end it. */
 			session: SessionToken | null;
+			/** The API token an /api request came with (null for a browser session): authorize() narrows the user's role to its scopes. */
+			apiToken: { id: number; scopes: TokenScope[] } | null;
 		}
 	}
 }

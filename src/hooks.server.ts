@@ -1,5 +1,6 @@
 import { error, json, redirect, type Handle, type HandleServerError, type RequestEvent, type ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
+import { authenticateApiToken } from '$lib/server/api-tokens/service';
 import { authHandle, clearSessionCookies, sessionTokenOf } from '$lib/server/auth/authjs';
 import { prepareStandInHash } from '$lib/server/auth/password';
 import { userOfSession } from '$lib/server/auth/session-user';
@@ -61,14 +62,35 @@ const limitBodies: Handle = async ({ event, resolve }) => {
 	return refused ?? resolve(event);
 };
 
+// An /api request with `Authorization: Bearer …` is a script's: it is answered as the token's
+// user and nobody else (its cookies are not read). Another scheme (a proxy's Basic) is not ours.
+const BEARER = /^Bearer(?: +(\S*))? *$/i;
+
+function bearerTokenOf(event: RequestEvent): string | null {
+	if (!event.url.pathname.startsWith('/api/')) return null;
+	const m = BEARER.exec(event.request.headers.get('authorization') ?? '');
+	return m ? (m[1] ?? '') : null;
+}
+
+// RFC 6750 §3: the scheme a refused API request may use, and why a token was refused.
+const AUTH_CHALLENGE = 'Bearer realm="Ringdown"';
+const TOKEN_ERRORS: Record<string, string> = {
+	invalid: 'The token is not valid',
+	expired: 'The token has expired',
+	revoked: 'The token was revoked',
+	ended: 'The token ended with its account sessions'
+};
+
 // Browsers send Origin with every POST, PUT, PATCH and DELETE: one from another site is refused
-// whatever its content type (SvelteKit's own check covers form content types only). Without an
-// Origin, only a request carrying no cookies passes — it cannot be riding someone's session
-// (a script with an Authorization header, for example).
+// whatever its content type (SvelteKit's own check, which covers form content types only and
+// refuses a script's multipart upload without Origin, is off in svelte.config.js: this replaces
+// it). Without an Origin, only a request carrying no cookies passes — it cannot be riding
+// someone's session. A bearer-token /api request carries no ambient credentials (its cookies are
+// never read), so it is not checked.
 const STATE_CHANGING = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 
 const refuseCrossSiteChanges: Handle = async ({ event, resolve }) => {
-	if (STATE_CHANGING.has(event.request.method)) {
+	if (STATE_CHANGING.has(event.request.method) && bearerTokenOf(event) === null) {
 		const origin = event.request.headers.get('origin');
 		const crossSite = origin === null ? Boolean(event.request.headers.get('cookie')) : origin !== event.url.origin;
 		if (crossSite) return refusal(event, 403, 'Changes from another site are refused.');
@@ -90,8 +112,30 @@ const loadUser: Handle = async ({ event, resolve }) => {
 	event.locals.user = null;
 	event.locals.memberships = [];
 	event.locals.session = null;
+	event.locals.apiToken = null;
 	// /health reports each dependency itself, for anyone, signed in or not.
 	if (event.url.pathname === '/health') return resolve(event);
+	const bearer = bearerTokenOf(event);
+	if (bearer !== null) {
+		let found;
+		try {
+			found = await authenticateApiToken(bearer, event.getClientAddress());
+		} catch (e) {
+			if (isOutage(e)) error(503, { message: UNAVAILABLE, code: 'unavailable' });
+			throw e;
+		}
+		if (!found.ok) {
+			const headers: Record<string, string> =
+				found.status === 429
+					? { 'retry-after': String(found.retryAfterS) }
+					: { 'www-authenticate': `${AUTH_CHALLENGE}, error="invalid_token", error_description="${TOKEN_ERRORS[found.reason]}"` };
+			return json({ message: found.message, code: found.reason === 'rate_limited' ? 'rate_limited' : 'invalid_token' }, { status: found.status, headers });
+		}
+		event.locals.user = found.user;
+		event.locals.memberships = found.memberships;
+		event.locals.apiToken = found.token;
+		return resolve(event);
+	}
 	const token = sessionTokenOf(await event.locals.auth());
 	if (token) {
 		let loaded;
@@ -118,7 +162,11 @@ const requireSignIn: Handle = async ({ event, resolve }) => {
 	const p = event.url.pathname;
 	const open = p.startsWith('/auth/') || p.startsWith('/_app/') || PUBLIC_PATHS.some((r) => r.test(p));
 	if (!open && !event.locals.user) {
-		if (p.startsWith('/api/')) return refusal(event, 401, 'Sign in to continue.');
+		if (p.startsWith('/api/')) {
+			const res = refusal(event, 401, 'Sign in, or send an API token as "Authorization: Bearer rdt_…".');
+			res.headers.set('www-authenticate', AUTH_CHALLENGE);
+			return res;
+		}
 		redirect(303, `/signin?redirectTo=${encodeURIComponent(p + event.url.search)}`);
 	}
 	return resolve(event);

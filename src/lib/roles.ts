@@ -37,3 +37,27 @@ export const ROLE_LABELS: Record<Role, string> = {
 	consultant: 'Consultant',
 	client: 'Client'
 };
+
+/**
+ * What a personal API token may do: each scope opens a set of permissions, and a token's request
+ * needs both its user's role and one of its scopes to allow a permission. No scope opens creating
+ * projects, editing projects, rooms and visits, or managing people: those stay in the browser.
+ */
+export const TOKEN_SCOPES = ['read', 'upload', 'review'] as const;
+export type TokenScope = (typeof TOKEN_SCOPES)[number];
+
+const SCOPE_GRANTS: Record<TokenScope, readonly Permission[]> = {
+	read: ['project:read', 'project:internal'],
+	upload: ['capture:write'],
+	review: ['review:write', 'report:publish']
+};
+
+export function scopesAllow(scopes: readonly TokenScope[], permission: Permission): boolean {
+	return scopes.some((s) => SCOPE_GRANTS[s].includes(permission));
+}
+
+export const SCOPE_LABELS: Record<TokenScope, string> = {
+	read: 'Read projects, visits, captures and results',
+	upload: 'Upload, relabel, delete and re-run captures',
+	review: 'Comparisons, problem bands, plans and publishing'
+};

@@ -45,6 +45,8 @@ const configSchema = z.object({
 
 	// Signs the session tokens; `npm start` generates one into .data/auth-secret.
 	AUTH_SECRET: z.string().optional(),
+	// Requests one personal API token may make per minute (then 429 for a minute, doubling).
+	API_TOKEN_REQUESTS_PER_MINUTE: z.coerce.number().int().positive().default(600),
 	// How often an idle worker looks for work, and how long a claimed job stays its own.
 	WORKER_POLL_MS: z.coerce.number().int().positive().default(500),
 	JOB_LEASE_MS: z.coerce.number().int().positive().default(60_000)

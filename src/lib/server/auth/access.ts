@@ -5,7 +5,7 @@ import type { Knex } from 'knex';
 import { db } from '../db';
 import { findOwner } from '../queries/ownership';
 import { isProjectMember } from '../queries/projects';
-import { roleAllows, roleNeedsProjectMembership, type Permission, type Role } from '../../roles';
+import { roleAllows, roleNeedsProjectMembership, scopesAllow, type Permission, type Role } from '../../roles';
 
 export interface SessionUser {
 	id: number;
@@ -47,7 +47,8 @@ export function requireUser(locals: App.Locals): SessionUser {
 /**
  * Check that the signed-in user may do `permission` on `target`. Throws 401 when signed out,
  * 404 when the target does not exist or lies outside the user's reach (so its existence is
- * not revealed), 403 when the user can see it but their role may not do this.
+ * not revealed), 403 when the user can see it but their role — or, for a request with an API
+ * token, the token's scopes — may not do this.
  */
 export async function authorize(
 	locals: App.Locals,
@@ -68,6 +69,8 @@ export async function authorize(
 		if (!(await isProjectMember(k, owner.projectId, user.id))) error(404, 'Not found.');
 	}
 	if (!roleAllows(role, permission)) error(403, 'Your role does not allow this.');
+	// A request with an API token does what the role allows and the token's scopes allow, no more.
+	if (locals.apiToken && !scopesAllow(locals.apiToken.scopes, permission)) error(403, 'This API token’s scopes do not allow this.');
 	return { organizationId: owner.organizationId, projectId: owner.projectId, role, user };
 }
 

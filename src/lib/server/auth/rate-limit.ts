@@ -38,7 +38,9 @@ export const LIMITS = {
 	/** Reset mails asked for one address (known or not, so the answer says nothing about accounts). */
 	resetAccount: { limit: 3, windowMs: HOUR, lockoutMs: HOUR, maxLockoutMs: 24 * HOUR, forgetAfterMs: 24 * HOUR },
 	/** Reset mails asked from one address. */
-	resetAddress: { limit: 10, windowMs: HOUR, lockoutMs: HOUR, maxLockoutMs: 24 * HOUR, forgetAfterMs: 24 * HOUR }
+	resetAddress: { limit: 10, windowMs: HOUR, lockoutMs: HOUR, maxLockoutMs: 24 * HOUR, forgetAfterMs: 24 * HOUR },
+	/** Requests with one API token (the limit per minute is the setting API_TOKEN_REQUESTS_PER_MINUTE). */
+	apiToken: { limit: 600, windowMs: MINUTE, lockoutMs: MINUTE, maxLockoutMs: 15 * MINUTE, forgetAfterMs: HOUR }
 } as const satisfies Record<string, LimitPolicy>;
 
 export type LimitName = keyof typeof LIMITS;
@@ -103,6 +105,8 @@ export function bucketKey(name: LimitName, who: string): string {
 export interface Take {
 	name: LimitName;
 	who: string;
+	/** The policy when it is a setting rather than the one in LIMITS. */
+	policy?: LimitPolicy;
 }
 
 const IDLE_MS = 2 * 24 * HOUR;
@@ -124,7 +128,7 @@ export async function takeAttempts(k: Knex, takes: Take[]): Promise<Answer> {
 			await ensureBuckets(trx, keys.filter((key) => !states.has(key)));
 			states = await lockBuckets(trx, keys);
 		}
-		const results = takes.map((t, i) => ({ key: keys[i], ...takeAttempt(states.get(keys[i])!, LIMITS[t.name], now) }));
+		const results = takes.map((t, i) => ({ key: keys[i], ...takeAttempt(states.get(keys[i])!, t.policy ?? LIMITS[t.name], now) }));
 		const refused = results.filter((r) => !r.verdict.allowed);
 		// Refused: only a lockout that starts now is written; allowed: every bucket is charged.
 		for (const r of refused.length ? refused : results) await saveBucket(trx, r.key, r.state, now);
