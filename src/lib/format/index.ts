@@ -4,3 +4,4 @@ export { DB_DECIMALS, formatDb, formatMs, formatMsRange, formatSeconds, formatWa
 export { formatBand, formatHz, formatHzAxis, formatHzRange, formatSampleRate } from './frequency';
 export { capitalise, formatList, formatRange } from './text';
 export { formatArea, formatCoefficient, formatRoomSize, formatRoomSizeBare, formatVolume, type RoomSize } from './room';
+export { formatDate, formatDateTime } from './date';
