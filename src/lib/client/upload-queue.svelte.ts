@@ -20,6 +20,8 @@ export interface UploadItem {
 	message: string | null;
 	/** The recording's length from its header, once read in the browser; null if unknown. */
 	recordingS: number | null;
+	/** A capture announced for this file whose upload failed and could not be withdrawn yet. */
+	unfinished: number | null;
 }
 
 /** A picked file read by ranges, like a stored object on the server. */
@@ -87,7 +89,8 @@ export class UploadQueue {
 				state: 'ready',
 				progress: 0,
 				message: file.name.toLowerCase().endsWith('.wav') ? null : 'Only WAV files can be analysed.',
-				recordingS: null
+				recordingS: null,
+				unfinished: null
 			});
 			void this.readLength(key, file);
 		}
@@ -137,9 +140,29 @@ export class UploadQueue {
 		this.busy = false;
 	}
 
+	/**
+	 * Take back a capture whose file never arrived: its row, any part already stored, and a new
+	 * position made for it alone go (the server does that in one step). A file the server already
+	 * refused is gone (404). False while the server cannot be reached: try again before the next send.
+	 */
+	private async withdraw(captureId: number): Promise<boolean> {
+		try {
+			await apiFetch(`/api/captures/${captureId}`, { method: 'DELETE' });
+			return true;
+		} catch (e) {
+			return e instanceof ApiFailure && e.status === 404;
+		}
+	}
+
 	private async uploadOne(item: UploadItem): Promise<void> {
 		const set = (patch: Partial<UploadItem>) => Object.assign(item, patch);
+		let announcedId: number | null = null;
 		try {
+			// What a failed try left behind goes first, or it would be taken for this same file.
+			if (item.unfinished !== null) {
+				if (!(await this.withdraw(item.unfinished))) throw new Error('The earlier try of this file could not be taken back yet: check the connection and try again.');
+				set({ unfinished: null });
+			}
 			set({ state: 'hashing', message: null, progress: 0 });
 			const sha256 = await sha256Hex(item.file);
 			set({ state: 'announcing' });
@@ -158,6 +181,7 @@ export class UploadQueue {
 				else if (item.reference) body.reference = { filename: item.reference.name, sizeBytes: item.reference.size };
 			}
 			const announced = await apiFetch<Announced>(`/api/sessions/${this.sessionId}/captures`, { method: 'POST', body: JSON.stringify(body) });
+			announcedId = announced.capture.id;
 			set({ state: 'uploading' });
 			const refShare = announced.referenceUpload && item.reference ? item.reference.size / (item.reference.size + item.file.size) : 0;
 			await putWithProgress(announced.upload.url, item.file, announced.upload.headers, (f) => set({ progress: f * (1 - refShare) }));
@@ -172,6 +196,9 @@ export class UploadQueue {
 				set({ state: 'duplicate', message: e.message });
 				return;
 			}
+			// Announced but not confirmed: take the capture back, so the visit keeps no half-made
+			// capture (nor a new position made for it) and the file can be sent again.
+			if (announcedId !== null && !(await this.withdraw(announcedId))) set({ unfinished: announcedId });
 			set({ state: 'error', message: e instanceof ApiFailure ? e.detail : (e as Error).message });
 		}
 	}

@@ -13,20 +13,28 @@ import { conflict, notFound, Problem } from '../problem';
 import { isDuplicateKey } from '../db-errors';
 import * as captureRows from '../queries/captures';
 import type { CaptureRow } from '../queries/captures';
-import { ensurePosition, isPositionOfSession } from '../queries/positions';
+import { ensurePosition, isPositionOfSession, keepPosition, lockPosition, removeUnkeptPosition } from '../queries/positions';
 import { clearAnalysedNotice } from '../queries/sessions';
 import { isSweepOfOrganization } from '../queries/sweeps';
 import { readWavHeader, WavHeaderError, type WavHeader } from './wav-header';
 import type { CreateCaptureInput, updateCaptureSchema } from '../../schemas/captures';
 import type { Scope } from '../auth/access';
 
-/** The position a capture goes to: one of its visit's, or the visit's position of a new label. */
-async function resolvePosition(trx: Knex.Transaction, sessionId: number, input: { positionId?: number; newPositionLabel?: string }): Promise<number | undefined> {
+/**
+ * The position a capture goes to: one of its visit's, or the visit's position of a new label —
+ * made here when missing (`created`), marked as made for an upload when it is for one.
+ */
+async function resolvePosition(
+	trx: Knex.Transaction,
+	sessionId: number,
+	input: { positionId?: number; newPositionLabel?: string },
+	opts: { forUpload?: boolean } = {}
+): Promise<{ id: number; created: boolean } | undefined> {
 	if (input.positionId !== undefined) {
 		if (!(await isPositionOfSession(trx, sessionId, input.positionId))) throw new Problem(422, 'That position belongs to another visit.', { field: 'positionId' });
-		return input.positionId;
+		return { id: input.positionId, created: false };
 	}
-	return input.newPositionLabel === undefined ? undefined : ensurePosition(trx, sessionId, input.newPositionLabel);
+	return input.newPositionLabel === undefined ? undefined : ensurePosition(trx, sessionId, input.newPositionLabel, opts);
 }
 
 type UpdateCaptureInput = z.infer<typeof updateCaptureSchema>;
@@ -70,9 +78,12 @@ export async function createCapture(scope: Scope, sessionId: number, input: Crea
 			await captureRows.lockSessionForCaptures(trx, sessionId);
 			const duplicate = await captureRows.findDuplicate(trx, sessionId, recording);
 			if (duplicate) throw duplicateProblem(duplicate);
+			// The schema asks for one of the two. A position made here lives or dies with this
+			// upload until it is kept (removeCapture).
+			const position = (await resolvePosition(trx, sessionId, input, { forUpload: true }))!;
 			const id = await captureRows.insertCapture(trx, {
 				sessionId,
-				positionId: (await resolvePosition(trx, sessionId, input))!, // the schema asks for one of the two
+				positionId: position.id,
 				kind: input.kind,
 				filename: input.filename,
 				objectKey,
@@ -84,6 +95,7 @@ export async function createCapture(scope: Scope, sessionId: number, input: Crea
 				createdBy: scope.user.id
 			});
 			await clearAnalysedNotice(trx, sessionId);
+			if (position.created) await audit(trx, scope, 'position.created', 'position', position.id, { label: input.newPositionLabel, forCapture: id });
 			await audit(trx, scope, 'capture.created', 'capture', id, { filename: input.filename });
 			return id;
 		});
@@ -145,6 +157,8 @@ export async function confirmUpload(scope: Scope, captureId: number, s: Storage 
 		throw e;
 	}
 	await transaction(async (trx) => {
+		// The position first (one lock order): a capture of it has arrived, so it stays.
+		await keepPosition(trx, capture.positionId);
 		if (await captureRows.markUploaded(trx, captureId, header)) await enqueue(trx, 'analyse-capture', { captureId });
 	});
 	return (await captureRows.getCapture(k, captureId))!;
@@ -172,8 +186,9 @@ export async function updateCapture(scope: Scope, captureId: number, input: Upda
 	const capture = (await captureRows.getCapture(db(), captureId))!;
 	await transaction(async (trx) => {
 		await captureRows.lockSessionForCaptures(trx, capture.sessionId);
-		const positionId = await resolvePosition(trx, capture.sessionId, input);
-		await captureRows.updateCaptureLabels(trx, captureId, { filename: input.filename, positionId });
+		const position = await resolvePosition(trx, capture.sessionId, input);
+		if (position?.created) await audit(trx, scope, 'position.created', 'position', position.id, { label: input.newPositionLabel });
+		await captureRows.updateCaptureLabels(trx, captureId, { filename: input.filename, positionId: position?.id });
 		await audit(trx, scope, 'capture.updated', 'capture', captureId, input);
 	});
 }
@@ -188,9 +203,16 @@ async function removeCapture(actor: Actor, capture: CaptureRow, s: Storage, acti
 	// an object would be the worse half-state.
 	for (const key of [capture.objectKey, capture.referenceObjectKey]) if (key) await s.remove(key);
 	await transaction(async (trx) => {
+		// The visit, then the position, then the capture: the lock order of every upload.
+		await captureRows.lockSessionForCaptures(trx, capture.sessionId);
+		await lockPosition(trx, capture.positionId);
 		await cancelCaptureJobs(trx, 'analyse-capture', capture.id);
 		await captureRows.deleteCaptureRow(trx, capture.id);
 		await audit(trx, actor, action, 'capture', capture.id, { filename: capture.filename, sha256: capture.sha256, ...details });
+		// A position this upload named into being, still empty and never kept, goes with it.
+		if (await removeUnkeptPosition(trx, capture.positionId)) {
+			await audit(trx, actor, 'position.deleted', 'position', capture.positionId, { label: capture.positionLabel, withCapture: capture.id });
+		}
 	});
 }
 

@@ -39,12 +39,34 @@ export async function isPositionOfSession(k: Knex, sessionId: number, positionId
 /**
  * The visit's position with this label, made when missing. Two files of a batch may name the
  * same new position at once: insert-or-ignore, then a locking read, which sees the row whichever
- * transaction created it.
+ * transaction created it. A position made for an upload is marked so (`made_by_upload`) until it
+ * is kept — see `keepPosition` and `removeUnkeptPosition`.
  */
-export async function ensurePosition(trx: Knex.Transaction, sessionId: number, label: string): Promise<number> {
-	await trx('positions').insert({ session_id: sessionId, label }).onConflict(['session_id', 'label']).ignore();
+export async function ensurePosition(trx: Knex.Transaction, sessionId: number, label: string, opts: { forUpload?: boolean } = {}): Promise<{ id: number; created: boolean }> {
+	const [insertedId] = await trx('positions').insert({ session_id: sessionId, label, made_by_upload: opts.forUpload ?? false }).onConflict(['session_id', 'label']).ignore();
 	const row = await trx('positions').where({ session_id: sessionId, label }).forUpdate().first('id');
-	return row.id;
+	return { id: row.id, created: insertedId === row.id };
+}
+
+/** A capture of the position has arrived (or a person edited it): it stays, whatever its uploads do. */
+export async function keepPosition(k: Knex, id: number): Promise<void> {
+	await k('positions').where({ id, made_by_upload: true }).update({ made_by_upload: false });
+}
+
+/** Lock the position's row (the visit first, then its positions, then captures). */
+export async function lockPosition(trx: Knex.Transaction, id: number): Promise<void> {
+	await trx('positions').where({ id }).forUpdate().first('id');
+}
+
+/**
+ * Remove a position that an upload made, nothing has kept since, and that holds no capture:
+ * after that upload was refused, withdrawn or abandoned. Whether it was removed.
+ */
+export async function removeUnkeptPosition(trx: Knex.Transaction, id: number): Promise<boolean> {
+	const row = await trx('positions').where({ id }).forUpdate().first('made_by_upload');
+	if (!row?.made_by_upload) return false;
+	if (await trx('captures').where({ position_id: id }).first('id')) return false;
+	return (await trx('positions').where({ id }).delete()) === 1;
 }
 
 export interface PositionInput {
@@ -78,8 +100,9 @@ export async function createPosition(k: Knex, sessionId: number, p: PositionInpu
 	return id;
 }
 
+/** A person's edit: the position is kept from then on, even if the upload that made it fails. */
 export async function updatePosition(k: Knex, id: number, p: PositionInput): Promise<void> {
-	await k('positions').where({ id }).update(columnsOf(p));
+	await k('positions').where({ id }).update({ ...columnsOf(p), made_by_upload: false });
 }
 
 /** Remove a position that holds no capture, locking it so an upload cannot land in it meanwhile. */
