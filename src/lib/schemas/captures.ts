@@ -54,6 +54,27 @@ export function createCaptureSchema(maxBytes: number) {
 }
 export type CreateCaptureInput = z.infer<ReturnType<typeof createCaptureSchema>>;
 
+/**
+ * The multipart form of an upload through the server, as the API description shows it: the file
+ * (and the played sweep) as parts, and the metadata fields of `createCaptureSchema` as text, from
+ * which the route builds the announcement and checks it with that schema. The size is the
+ * file's own, and the file name and SHA-256 are taken from the file when not given.
+ */
+export function captureUploadFormSchema(maxBytes: number) {
+	const fields = createCaptureSchema(maxBytes).shape;
+	return z.object({
+		file: z.file().meta({ description: 'The WAV recording or impulse response.' }),
+		reference: z.file().optional().meta({ description: 'The sweep that was played, for a recorded sweep without a stored test signal.' }),
+		filename: fields.filename.optional().meta({ description: 'Defaults to the name of the file part.' }),
+		sha256: fields.sha256.optional().meta({ description: 'Computed by the server when not given.' }),
+		kind: fields.kind,
+		positionId: fields.positionId,
+		newPositionLabel: fields.newPositionLabel,
+		channel: fields.channel,
+		sweepDefinitionId: fields.sweepDefinitionId
+	});
+}
+
 export const updateCaptureSchema = z
 	.object({
 		positionId: z.number().int().positive().optional(),

@@ -1,11 +1,13 @@
 import { error } from '@sveltejs/kit';
+import { exportQuerySchema, type EXPORT_FORMATS } from '../schemas/exports';
 
-export type ExportFormat = 'csv' | 'json';
+export type ExportFormat = (typeof EXPORT_FORMATS)[number];
 
+/** The `format` an export route was asked for (csv when none); 400 for any other. */
 export function exportFormat(url: URL): ExportFormat {
-	const f = url.searchParams.get('format') ?? 'csv';
-	if (f !== 'csv' && f !== 'json') error(400, 'Ask for format=csv or format=json.');
-	return f;
+	const parsed = exportQuerySchema.shape.format.safeParse(url.searchParams.get('format') ?? undefined);
+	if (!parsed.success) error(400, parsed.error.issues[0].message);
+	return parsed.data;
 }
 
 const safeName = (s: string) => s.replace(/[^\w.-]+/g, '-').replace(/-+/g, '-').replace(/^-|-$/g, '').toLowerCase() || 'export';
