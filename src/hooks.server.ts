@@ -11,8 +11,9 @@ import { closeDb, db } from '$lib/server/db';
 import { isDatabaseUnreachable } from '$lib/server/db-errors';
 import { Problem } from '$lib/server/problem';
 
-// Pages anyone may open; everything else needs a signed-in user (deny by default).
-const PUBLIC_PATHS = [/^\/signin$/, /^\/signout$/, /^\/invitation\/[^/]+$/, /^\/password\/(forgot|reset\/[^/]+)$/, /^\/health$/];
+// Pages anyone may open; everything else needs a signed-in user (deny by default). The API
+// description names routes and shapes only, no one's data.
+const PUBLIC_PATHS = [/^\/signin$/, /^\/signout$/, /^\/invitation\/[^/]+$/, /^\/password\/(forgot|reset\/[^/]+)$/, /^\/health$/, /^\/api\/openapi\.json$/, /^\/developers\/api$/];
 
 const UNAVAILABLE = 'Ringdown is briefly unavailable. Try again in a moment.';
 const RETRY_AFTER_S = '10';
