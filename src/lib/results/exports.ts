@@ -226,13 +226,16 @@ function bandJson(band: BandMetrics): BandJson {
 
 export interface CaptureBandsJson {
 	schema: typeof CAPTURE_BANDS_SCHEMA;
+	/** The capture's note on its conditions ("door open"), null when it has none; absent when not asked for. */
+	note?: string | null;
 	bands: BandJson[];
 	broadband: BandJson;
 }
 
-export function captureBandsJson(result: { bands: BandMetrics[]; broadband: BandMetrics }): CaptureBandsJson {
+export function captureBandsJson(result: { bands: BandMetrics[]; broadband: BandMetrics }, note?: string | null): CaptureBandsJson {
 	return {
 		schema: CAPTURE_BANDS_SCHEMA,
+		...(note === undefined ? {} : { note }),
 		bands: [...result.bands].sort((a, b) => a.centerHz - b.centerHz).map(bandJson),
 		broadband: bandJson(result.broadband)
 	};

@@ -15,6 +15,8 @@ export interface CaptureView {
 	durationS: number | null;
 	status: CaptureStatus;
 	error: string | null;
+	/** The acoustician's or consultant's remark on the capture's conditions ("door open"). */
+	note: string | null;
 	engineVersion: string | null;
 	warnings: { code: string; band: number | null; message: string }[];
 	headline: { t30S: number | null; t20S: number | null; edtS: number | null; c80Db: number | null; peakToNoiseDb: number | null } | null;

@@ -38,13 +38,13 @@ export async function storedAnalysis(captureId: number): Promise<StoredAnalysis>
  * A capture's per-band metrics, with its file name to name the export after. A failed capture keeps
  * its numbers for the quality notes, but they are not exported as results.
  */
-export async function captureMetrics(captureId: number): Promise<{ filename: string; metrics: StoredMetrics }> {
+export async function captureMetrics(captureId: number): Promise<{ filename: string; note: string | null; metrics: StoredMetrics }> {
 	const k = db();
 	const capture = (await getCapture(k, captureId))!;
 	if (capture.status === 'failed') throw conflict('This capture could not be analysed, so it has no band values to export; its page says why.', { code: 'capture_failed' });
 	const metrics = await getAnalysisMetrics(k, captureId);
 	if (!metrics) throw notFound(NO_ANALYSIS);
-	return { filename: capture.filename, metrics };
+	return { filename: capture.filename, note: capture.note, metrics };
 }
 
 /** A short-lived link to the original file (the object key itself stays random and unseen). */

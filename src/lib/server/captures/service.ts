@@ -193,6 +193,17 @@ export async function updateCapture(scope: Scope, captureId: number, input: Upda
 	});
 }
 
+/** Write, change or clear (null) a capture's note; the audit record keeps what it said before. */
+export async function setCaptureNote(scope: Scope, captureId: number, note: string | null): Promise<void> {
+	const capture = await captureRows.getCapture(db(), captureId);
+	if (!capture) throw notFound();
+	if (capture.note === note) return;
+	await transaction(async (trx) => {
+		await captureRows.setCaptureNote(trx, captureId, note);
+		await audit(trx, scope, 'capture.noted', 'capture', captureId, { from: capture.note, to: note });
+	});
+}
+
 /** Delete a capture: its objects, its rows (analysis and jobs), and an audit record. */
 export async function deleteCapture(scope: Scope, captureId: number, s: Storage = storage()): Promise<void> {
 	await removeCapture(scope, (await captureRows.getCapture(db(), captureId))!, s);

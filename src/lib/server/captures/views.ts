@@ -21,6 +21,7 @@ export function toView(c: CaptureRow, summary?: { engineVersion: string; warning
 		durationS: c.durationS,
 		status: c.status,
 		error: c.error,
+		note: c.note ?? null,
 		engineVersion: summary?.engineVersion ?? null,
 		warnings: (summary?.warnings ?? []) as CaptureView['warnings'],
 		headline: broadband

@@ -7,7 +7,7 @@ import { pointOf, type Point } from './positions';
 export type { CaptureStatus };
 
 /** What the browser is shown of a capture, as stored; the rest stays on the server. */
-type SharedFields = 'id' | 'positionId' | 'positionLabel' | 'kind' | 'filename' | 'sizeBytes' | 'sampleRate' | 'channels' | 'channel' | 'durationS' | 'status' | 'error';
+type SharedFields = 'id' | 'positionId' | 'positionLabel' | 'kind' | 'filename' | 'sizeBytes' | 'sampleRate' | 'channels' | 'channel' | 'durationS' | 'status' | 'error' | 'note';
 
 export interface CaptureRow extends Pick<CaptureView, SharedFields> {
 	sessionId: number;
@@ -37,6 +37,7 @@ const columns = {
 	durationS: 'c.duration_s',
 	status: 'c.status',
 	error: 'c.error',
+	note: 'c.note',
 	createdAt: 'c.created_at',
 	updatedAt: 'c.updated_at'
 };
@@ -60,14 +61,21 @@ export function referenceIdentity(c: { sweepDefinitionId: number | null; referen
 	return c.referenceObjectKey !== null ? 'uploaded' : '';
 }
 
-/** The capture of this visit that is the same recording, on the same channel, with the same reference. */
+/**
+ * The capture of this visit that is the same recording, on the same channel, with the same
+ * reference — other than `exceptId` (a capture whose reference is being changed).
+ */
 export async function findDuplicate(
 	k: Knex,
 	sessionId: number,
-	recording: { sha256: string; channel: number; sweepDefinitionId: number | null; referenceObjectKey: string | null }
+	recording: { sha256: string; channel: number; sweepDefinitionId: number | null; referenceObjectKey: string | null },
+	exceptId?: number
 ): Promise<CaptureRow | undefined> {
 	return base(k)
 		.where({ 'c.session_id': sessionId, 'c.sha256': recording.sha256, 'c.channel': recording.channel, 'c.reference_identity': referenceIdentity(recording) })
+		.modify((q) => {
+			if (exceptId !== undefined) q.whereNot('c.id', exceptId);
+		})
 		.first(columns);
 }
 
@@ -127,6 +135,11 @@ export async function updateCaptureLabels(k: Knex, id: number, changes: { filena
 	if (Object.keys(row).length) await k('captures').where({ id }).update(row);
 }
 
+/** Write or clear (null) the capture's note. */
+export async function setCaptureNote(k: Knex, id: number, note: string | null): Promise<void> {
+	await k('captures').where({ id }).update({ note });
+}
+
 /** Awaiting upload → queued, with what its header says; false when an earlier request did it. */
 export async function markUploaded(k: Knex, id: number, header: { sampleRate: number; channels: number; durationS: number }): Promise<boolean> {
 	const n = await k('captures')
@@ -138,6 +151,19 @@ export async function markUploaded(k: Knex, id: number, header: { sampleRate: nu
 /** Analysed or failed → queued again; false for a capture still on its way. */
 export async function requeueSettled(k: Knex, id: number): Promise<boolean> {
 	const n = await k('captures').where({ id }).whereIn('status', ['analysed', 'failed']).update({ status: 'queued', error: null });
+	return n === 1;
+}
+
+/**
+ * A settled capture's played sweep changed — a test signal or an uploaded reference file, the
+ * other cleared — and queued again; false for a capture still on its way. The duplicate key may
+ * refuse it (ER_DUP_ENTRY).
+ */
+export async function changeReferenceAndRequeue(k: Knex, id: number, reference: { sweepDefinitionId: number | null; referenceObjectKey: string | null }): Promise<boolean> {
+	const n = await k('captures')
+		.where({ id })
+		.whereIn('status', ['analysed', 'failed'])
+		.update({ sweep_definition_id: reference.sweepDefinitionId, reference_object_key: reference.referenceObjectKey, status: 'queued', error: null });
 	return n === 1;
 }
 
