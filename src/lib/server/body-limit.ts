@@ -4,9 +4,12 @@
 // Content-Length (chunked) is counted as it arrives and refused when it passes the cap.
 import { json, type RequestEvent } from '@sveltejs/kit';
 import type { AppConfig } from './config';
+import { PHOTO_BODY_MAX_BYTES } from '../schemas/photos';
 
 /** Routes that take a recording through the server (multipart: the file, a reference, fields). */
 const LARGE_BODY_ROUTES = new Set(['/api/sessions/[sessionId=id]/captures/upload']);
+/** Routes that take one photo through the server (multipart: the image and its caption), which re-encodes it. */
+const PHOTO_ROUTES = new Set(['/sessions/[sessionId=id]/photos']);
 
 /** What a refused body is still read (and thrown away) for, so the client sees the answer. */
 const DISCARD_MAX_BYTES = 64 * 1024 * 1024;
@@ -21,7 +24,9 @@ export function uploadBodyBytes(c: Pick<AppConfig, 'UPLOAD_MAX_BYTES' | 'BODY_MA
 
 /** The body cap for a route (by SvelteKit route id; null when no route matched). */
 export function bodyLimitFor(routeId: string | null, c: Pick<AppConfig, 'UPLOAD_MAX_BYTES' | 'BODY_MAX_BYTES'>): number {
-	return routeId !== null && LARGE_BODY_ROUTES.has(routeId) ? uploadBodyBytes(c) : c.BODY_MAX_BYTES;
+	if (routeId !== null && LARGE_BODY_ROUTES.has(routeId)) return uploadBodyBytes(c);
+	if (routeId !== null && PHOTO_ROUTES.has(routeId)) return Math.max(PHOTO_BODY_MAX_BYTES, c.BODY_MAX_BYTES);
+	return c.BODY_MAX_BYTES;
 }
 
 /**

@@ -4,6 +4,7 @@ import { authorize } from '$lib/server/auth/access';
 import { formAction } from '$lib/server/forms';
 import { addPosition, editPosition, removePosition, visitPage } from '$lib/server/sessions/service';
 import { calibrationSummary } from '$lib/server/calibrations/service';
+import { visitPhotos } from '$lib/server/photos/service';
 import { positionSchema } from '$lib/schemas/projects';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -15,7 +16,7 @@ export const load = (async ({ locals, params }) => {
 	const sessionId = Number(params.sessionId);
 	const scope = await authorize(locals, 'project:read', { sessionId });
 	const page = await visitPage(scope, sessionId);
-	return { ...page, calibration: page.can.internal ? await calibrationSummary(sessionId) : null };
+	return { ...page, calibration: page.can.internal ? await calibrationSummary(sessionId) : null, photos: await visitPhotos(sessionId) };
 }) satisfies PageServerLoad;
 
 export const actions = {
