@@ -22,6 +22,8 @@ export interface UploadItem {
 	recordingS: number | null;
 	/** A capture announced for this file whose upload failed and could not be withdrawn yet. */
 	unfinished: number | null;
+	/** The capture this file became, once uploaded and confirmed. */
+	captureId: number | null;
 }
 
 /** A picked file read by ranges, like a stored object on the server. */
@@ -90,7 +92,8 @@ export class UploadQueue {
 				progress: 0,
 				message: file.name.toLowerCase().endsWith('.wav') ? null : 'Only WAV files can be analysed.',
 				recordingS: null,
-				unfinished: null
+				unfinished: null,
+				captureId: null
 			});
 			void this.readLength(key, file);
 		}
@@ -190,7 +193,7 @@ export class UploadQueue {
 			}
 			set({ state: 'confirming', progress: 1 });
 			await apiFetch(`/api/captures/${announced.capture.id}/uploaded`, { method: 'POST' });
-			set({ state: 'done', message: 'Uploaded — queued for analysis.' });
+			set({ state: 'done', message: 'Uploaded — queued for analysis.', captureId: announced.capture.id });
 		} catch (e) {
 			if (e instanceof ApiFailure && e.status === 409 && e.body.duplicateOf) {
 				set({ state: 'duplicate', message: e.message });
