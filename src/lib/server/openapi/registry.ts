@@ -17,6 +17,7 @@ export const RESOURCES = [
 	{ name: 'Comparisons', description: 'A before/after comparison of two visits of a room, its exports and its report.' },
 	{ name: 'Treatment plans', description: 'A room\'s treatment plan worked through, and its cut list.' },
 	{ name: 'Test signals', description: 'The sweeps a practice plays in the rooms it measures.' },
+	{ name: 'Visit photos', description: 'Photos of a visit: of the room, or of one position.' },
 	{ name: 'Description', description: 'This description itself.' }
 ] as const;
 export type Resource = (typeof RESOURCES)[number]['name'];
@@ -83,7 +84,8 @@ const PARAM_NAMES: Record<string, string> = {
 	sessionId: 'visit',
 	comparisonId: 'comparison',
 	roomId: 'room',
-	sweepId: 'test signal'
+	sweepId: 'test signal',
+	photoId: 'photo'
 };
 
 /** The path parameters of a route as one zod object (every `=id` parameter is a positive integer). */

@@ -4,10 +4,11 @@ import type { ApiOperation, DescriptionLimits } from '../registry';
 import { captureOperations } from './captures';
 import { comparisonOperations } from './comparisons';
 import { descriptionOperations } from './description';
+import { photoOperations } from './photos';
 import { roomOperations } from './rooms';
 import { sessionOperations } from './sessions';
 import { sweepOperations } from './sweeps';
 
 export function apiOperations(limits: DescriptionLimits): ApiOperation[] {
-	return [...captureOperations, ...sessionOperations(limits), ...comparisonOperations, ...roomOperations, ...sweepOperations, ...descriptionOperations];
+	return [...captureOperations, ...sessionOperations(limits), ...comparisonOperations, ...roomOperations, ...sweepOperations, ...photoOperations, ...descriptionOperations];
 }
