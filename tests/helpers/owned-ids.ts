@@ -32,5 +32,25 @@ export async function ownedIds(k: Knex, t: ProjectTree): Promise<Record<string, 
 	});
 	const [laterSessionId] = await k('sessions').insert({ room_id: t.roomId, condition_label: 'treated', measured_on: '2026-11-20' });
 	const [comparisonId] = await k('comparisons').insert({ room_id: t.roomId, baseline_session_id: t.sessionId, treated_session_id: laterSessionId, title: 'owned comparison', published_at: new Date() });
-	return { projectId: t.projectId, roomId: t.roomId, sessionId: t.sessionId, positionId: t.positionId, captureId, sweepId, comparisonId };
+	const photoName = randomUUID();
+	const [photoId] = await k('visit_photos').insert({
+		session_id: t.sessionId,
+		position_id: t.positionId,
+		caption: 'owned photo',
+		display_key: `photos/${photoName}.jpg`,
+		thumb_key: `photos/${photoName}-thumb.jpg`,
+		content_type: 'image/jpeg',
+		width: 640,
+		height: 480,
+		thumb_width: 480,
+		thumb_height: 360,
+		display_bytes: 1000,
+		thumb_bytes: 500,
+		original_filename: 'owned.jpg',
+		original_type: 'image/jpeg',
+		original_bytes: 2000,
+		original_width: 640,
+		original_height: 480
+	});
+	return { projectId: t.projectId, roomId: t.roomId, sessionId: t.sessionId, positionId: t.positionId, captureId, sweepId, comparisonId, photoId };
 }

@@ -1,4 +1,5 @@
-import { redirect } from '@sveltejs/kit';
+import { error, redirect } from '@sveltejs/kit';
+import { BodyTooLargeError } from '$lib/server/body-limit';
 import { authorize } from '$lib/server/auth/access';
 import { formAction } from '$lib/server/forms';
 import { addPhoto, photosPage, removePhoto, setPhotoCaption } from '$lib/server/photos/service';
@@ -21,10 +22,17 @@ export const actions = {
 	add: async ({ locals, params, request }) => {
 		const sessionId = Number(params.sessionId);
 		const scope = await authorize(locals, 'project:edit', { sessionId });
-		return formAction(request, addPhotoSchema, async (input, formData) => {
-			const id = await addPhoto(scope, sessionId, input, formData.get('photo'));
-			redirect(303, backTo(sessionId, input.back, id));
-		});
+		try {
+			return await formAction(request, addPhotoSchema, async (input, formData) => {
+				const id = await addPhoto(scope, sessionId, input, formData.get('photo'));
+				redirect(303, backTo(sessionId, input.back, id));
+			});
+		} catch (e) {
+			// A body sent without its length is counted as it arrives (body-limit.ts) and cut off here.
+			const tooLarge = [e, (e as { cause?: unknown })?.cause].find((x) => x instanceof BodyTooLargeError);
+			if (tooLarge) error(413, (tooLarge as BodyTooLargeError).message);
+			throw e;
+		}
 	},
 
 	caption: async ({ locals, params, request }) => {
