@@ -2,11 +2,24 @@
 import { chromium, type Browser, type Locator, type Page } from 'playwright-core';
 import { BASE_URL, DEMO_PASSWORD } from '../helpers/env';
 
-export async function launch(): Promise<Browser> {
+export interface LaunchOptions {
+	/**
+	 * A WAV file Chromium plays as the microphone, through its fake capture device (permission
+	 * granted without asking). Chromium restarts the file with each new input stream and loops it
+	 * unless the path ends in `%noloop`; 16-bit PCM works, and it is not resampled when its rate
+	 * is the fake device's 44.1 kHz.
+	 */
+	fakeAudioCapture?: string;
+}
+
+export async function launch(options: LaunchOptions = {}): Promise<Browser> {
+	const audio = options.fakeAudioCapture
+		? ['--use-fake-ui-for-media-stream', '--use-fake-device-for-media-stream', `--use-file-for-fake-audio-capture=${options.fakeAudioCapture}`]
+		: [];
 	return chromium.launch({
 		executablePath: '/usr/bin/chromium',
 		headless: true,
-		args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync']
+		args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync', ...audio]
 	});
 }
 
