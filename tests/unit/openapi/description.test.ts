@@ -6,13 +6,13 @@ import { isHttpError } from '@sveltejs/kit';
 import { listRoutes } from '../../helpers/routes';
 import { buildApiDescription } from '../../../src/lib/server/openapi/document';
 import { apiOperations } from '../../../src/lib/server/openapi/operations';
-import { openApiPath, routeParams } from '../../../src/lib/server/openapi/registry';
+import { openApiPath, routeParams, scopeFor } from '../../../src/lib/server/openapi/registry';
 import { apiPageView, type ApiDocument } from '../../../src/lib/server/openapi/view';
 import { createCaptureSchema, updateCaptureSchema } from '../../../src/lib/schemas/captures';
 import { exportFormat } from '../../../src/lib/server/exports';
 
-const settings = { PUBLIC_BASE_URL: 'https://ringdown.example.test', UPLOAD_MAX_BYTES: 200 * 1024 * 1024, BODY_MAX_BYTES: 1024 * 1024 };
-const limits = { uploadMaxBytes: settings.UPLOAD_MAX_BYTES, bodyMaxBytes: settings.BODY_MAX_BYTES, uploadBodyDescription: '401 MiB' };
+const settings = { PUBLIC_BASE_URL: 'https://ringdown.example.test', UPLOAD_MAX_BYTES: 200 * 1024 * 1024, BODY_MAX_BYTES: 1024 * 1024, API_TOKEN_REQUESTS_PER_MINUTE: 600 };
+const limits = { uploadMaxBytes: settings.UPLOAD_MAX_BYTES, bodyMaxBytes: settings.BODY_MAX_BYTES, tokenRequestsPerMinute: 600, uploadBodyDescription: '401 MiB' };
 const doc = buildApiDescription(settings) as unknown as ApiDocument & { openapi: string };
 type Op = ApiDocument['paths'][string][string] & { responses: Record<string, unknown>; parameters?: { name: string; in: string; required?: boolean }[] };
 const METHODS = ['get', 'post', 'put', 'patch', 'delete'] as const;
@@ -24,7 +24,8 @@ describe('the OpenAPI document', () => {
 	it('is valid OpenAPI 3.1 by @readme/openapi-parser, with no warnings', async () => {
 		expect(doc.openapi).toBe('3.1.0');
 		const result = await validate(structuredClone(doc) as never);
-		expect(result.errors ?? [], JSON.stringify(result.errors ?? [])).toEqual([]);
+		const errors = 'errors' in result ? result.errors : [];
+		expect(errors, JSON.stringify(errors)).toEqual([]);
 		expect(result.valid).toBe(true);
 		expect(result.warnings).toEqual([]);
 	});
@@ -79,7 +80,7 @@ describe('the OpenAPI document', () => {
 				continue;
 			}
 			expect(op.security, where).toEqual([{ sessionCookie: [] }, { bearerToken: [op['x-token-scope']] }]);
-			for (const s of [401, 503]) expect(statuses, `${where} ${s}`).toContain(s);
+			for (const s of [401, 429, 503]) expect(statuses, `${where} ${s}`).toContain(s);
 			if (path.includes('{')) expect(statuses, `${where} 404`).toContain(404);
 			if (method !== 'get') expect(statuses, `${where} 403`).toContain(403);
 			if (op.requestBody) expect(statuses, `${where} 413`).toContain(413);
@@ -90,7 +91,11 @@ describe('the OpenAPI document', () => {
 		}
 	});
 
-	it('names the token scope of each signed-in operation from its permission', () => {
+	it('names the token scope of each signed-in operation from the token rules', () => {
+		expect(scopeFor('project:internal')).toBe('read');
+		expect(scopeFor('capture:write')).toBe('upload');
+		expect(scopeFor('report:publish')).toBe('review');
+		expect(scopeFor('members:manage')).toBeNull();
 		const byId = Object.fromEntries(described.map((d) => [d.op.operationId, d.op]));
 		expect(byId.getCapture['x-token-scope']).toBe('read');
 		expect(byId.uploadCapture['x-token-scope']).toBe('upload');
@@ -109,9 +114,10 @@ describe('the OpenAPI document', () => {
 	});
 
 	it('states the body limits of the settings it was made with', () => {
-		const small = buildApiDescription({ ...settings, BODY_MAX_BYTES: 64 * 1024, UPLOAD_MAX_BYTES: 10 * 1024 * 1024 }) as unknown as ApiDocument;
-		const patch = small.paths['/api/captures/{captureId}'].patch.responses['413'].description;
-		expect(patch).toContain('64 KiB');
+		const small = buildApiDescription({ ...settings, BODY_MAX_BYTES: 64 * 1024, UPLOAD_MAX_BYTES: 10 * 1024 * 1024, API_TOKEN_REQUESTS_PER_MINUTE: 30 }) as unknown as ApiDocument;
+		const patch = small.paths['/api/captures/{captureId}'].patch.responses;
+		expect(patch['413'].description).toContain('64 KiB');
+		expect(patch['429'].description).toContain('More than 30 requests a minute');
 		expect(small.paths['/api/sessions/{sessionId}/captures/upload'].post.responses['413'].description).toContain('20.1 MiB');
 	});
 });
@@ -165,7 +171,7 @@ describe('the readable page', () => {
 		const created = Object.fromEntries(op.responses[0].media[0].fields.map((f) => [f.name, f]));
 		expect(created.capture).toMatchObject({ type: 'Capture', shape: 'Capture' });
 		expect(created.referenceUpload).toMatchObject({ type: 'PresignedUpload or null', shape: 'PresignedUpload' });
-		expect(op.errors.map((e) => e.status)).toEqual(['400', '401', '403', '404', '409', '413', '422', '503']);
+		expect(op.errors.map((e) => e.status)).toEqual(['400', '401', '403', '404', '409', '413', '422', '429', '503']);
 	});
 
 	it('shows the named shapes and the two ways to sign in', () => {

@@ -4,17 +4,18 @@ import { createDocument, type ZodOpenApiObject, type ZodOpenApiOperationObject, 
 import { bodyLimitFor, uploadBodyBytes } from '../body-limit';
 import { config, type AppConfig } from '../config';
 import { apiOperations } from './operations';
-import { describeBytes, openApiPath, pathParamsSchema, refusalResponses, refusalsOf, rolesAllowed, RESOURCES, scopeFor, TOKEN_SCOPES, type ApiOperation, type DescriptionLimits } from './registry';
+import { SCOPE_LABELS, TOKEN_SCOPES, type Permission } from '../../roles';
+import { describeBytes, openApiPath, pathParamsSchema, refusalResponses, refusalsOf, rolesAllowed, RESOURCES, scopeFor, type ApiOperation, type DescriptionLimits } from './registry';
 
 export const API_VERSION = '1.0.0';
 
 /** The Auth.js session cookie: the plain name over http, `__Secure-` prefixed over https. */
 const SESSION_COOKIE = 'authjs.session-token';
 
-type Settings = Pick<AppConfig, 'PUBLIC_BASE_URL' | 'UPLOAD_MAX_BYTES' | 'BODY_MAX_BYTES'>;
+type Settings = Pick<AppConfig, 'PUBLIC_BASE_URL' | 'UPLOAD_MAX_BYTES' | 'BODY_MAX_BYTES' | 'API_TOKEN_REQUESTS_PER_MINUTE'>;
 
 function limitsOf(c: Settings): DescriptionLimits {
-	return { uploadMaxBytes: c.UPLOAD_MAX_BYTES, bodyMaxBytes: c.BODY_MAX_BYTES, uploadBodyDescription: describeBytes(uploadBodyBytes(c)) };
+	return { uploadMaxBytes: c.UPLOAD_MAX_BYTES, bodyMaxBytes: c.BODY_MAX_BYTES, tokenRequestsPerMinute: c.API_TOKEN_REQUESTS_PER_MINUTE, uploadBodyDescription: describeBytes(uploadBodyBytes(c)) };
 }
 
 /** The role and token facts of an operation, as extensions the readable page shows. */
@@ -26,14 +27,15 @@ export interface AccessExtensions {
 
 function operationObject(op: ApiOperation, c: Settings): ZodOpenApiOperationObject & AccessExtensions {
 	const path = pathParamsSchema(op.route);
-	const publicOp = op.access === 'public';
-	const refusals = refusalsOf(op, bodyLimitFor(op.route, c));
+	const permission: Permission | null = op.access === 'public' ? null : op.access;
+	const scope = permission && scopeFor(permission);
+	const refusals = refusalsOf(op, bodyLimitFor(op.route, c), limitsOf(c));
 	return {
 		operationId: op.operationId,
 		tags: [op.resource],
 		summary: op.summary,
 		description: op.description,
-		security: publicOp ? [] : [{ sessionCookie: [] }, { bearerToken: [scopeFor(op.access as Exclude<ApiOperation['access'], 'public'>)] }],
+		security: permission ? [{ sessionCookie: [] }, ...(scope ? [{ bearerToken: [scope] }] : [])] : [],
 		requestParams: { ...(path && { path }), ...(op.query && { query: op.query }), ...(op.headers && { header: op.headers }) },
 		...(op.body && {
 			requestBody: {
@@ -44,14 +46,14 @@ function operationObject(op: ApiOperation, c: Settings): ZodOpenApiOperationObje
 		}),
 		responses: { ...op.responses, ...refusalResponses(refusals) },
 		'x-permission': op.access,
-		'x-roles': publicOp ? [] : rolesAllowed(op.access as Exclude<ApiOperation['access'], 'public'>),
-		'x-token-scope': publicOp ? null : scopeFor(op.access as Exclude<ApiOperation['access'], 'public'>)
+		'x-roles': permission ? rolesAllowed(permission) : [],
+		'x-token-scope': scope ?? null
 	};
 }
 
 const INTRODUCTION = (c: Settings) => `The JSON API of Ringdown, for scripts and for the portal's own pages.
 
-**Signing in.** Every operation except this description needs either the session cookie the browser gets at sign-in, or a personal API token sent as \`Authorization: Bearer rdt_…\`. A user makes tokens on their account page, with a name, an expiry and one or more scopes — \`read\` (projects, visits, captures and results), \`upload\` (upload, relabel, delete and re-run captures) and \`review\` (comparisons, problem bands, plans, publishing) — and sees each token once. A token acts with its user's role and reach, narrowed to its scopes; it stops working when it expires, is revoked, or its user leaves the organization.
+**Signing in.** Every operation except this description needs either the session cookie the browser gets at sign-in, or a personal API token sent as \`Authorization: Bearer rdt_…\`. A user makes tokens on their account page, with a name, an expiry and one or more scopes — ${TOKEN_SCOPES.map((s) => `\`${s}\` (${SCOPE_LABELS[s].toLowerCase()})`).join(', ')} — and sees each token once. A token acts with its user's role and reach, narrowed to its scopes, and makes at most ${c.API_TOKEN_REQUESTS_PER_MINUTE} requests a minute; it stops working when it expires or is revoked, and when its user's sessions are ended (a new password, signing out everywhere, leaving the organization).
 
 **Who may.** Each operation names the permission it checks and the roles that have it. Anything outside your reach answers 404, whether it exists or not; what you can see but your role may not change answers 403.
 
@@ -86,7 +88,7 @@ export function buildApiDescription(c: Settings): ReturnType<typeof createDocume
 					type: 'http',
 					scheme: 'bearer',
 					bearerFormat: 'rdt_ followed by 43 base64url characters',
-					description: `A personal API token from the account page, sent as Authorization: Bearer rdt_…. Each operation names the scope it needs (${TOKEN_SCOPES.join(', ')}).`
+					description: `A personal API token from the account page, sent as Authorization: Bearer rdt_…. Each operation names the scope it needs (${TOKEN_SCOPES.join(', ')}); refused with 401 and a WWW-Authenticate header when not valid, expired or revoked.`
 				}
 			}
 		}
@@ -98,7 +100,7 @@ let cached: { key: string; document: ReturnType<typeof createDocument> } | null 
 
 /** The document of the running app (made once per settings). */
 export function apiDescription(c: Settings = config()): ReturnType<typeof createDocument> {
-	const key = JSON.stringify([c.PUBLIC_BASE_URL, c.UPLOAD_MAX_BYTES, c.BODY_MAX_BYTES]);
+	const key = JSON.stringify([c.PUBLIC_BASE_URL, c.UPLOAD_MAX_BYTES, c.BODY_MAX_BYTES, c.API_TOKEN_REQUESTS_PER_MINUTE]);
 	if (cached?.key !== key) cached = { key, document: buildApiDescription(c) };
 	return cached.document;
 }

@@ -5,7 +5,7 @@
 // or one of its methods has no entry here, or an entry has no route.
 import { z } from 'zod';
 import type { ZodOpenApiResponseObject } from 'zod-openapi';
-import { ROLES, roleAllows, type Permission } from '../../roles';
+import { ROLES, roleAllows, scopesAllow, TOKEN_SCOPES, type Permission, type TokenScope } from '../../roles';
 import { problemSchema } from './shapes';
 
 export type HttpMethod = 'get' | 'post' | 'put' | 'patch' | 'delete';
@@ -23,21 +23,16 @@ export const RESOURCES = [
 export type Resource = (typeof RESOURCES)[number]['name'];
 
 /**
- * What a personal API token must carry for an operation (`Authorization: Bearer rdt_…`). The
+ * The scope a personal API token (`Authorization: Bearer rdt_…`) must carry for a permission,
+ * from the token rules in roles.ts; null when no scope opens it (it stays in the browser). The
  * token acts with its owner's role and reach; the scope only narrows it.
  */
-export const TOKEN_SCOPES = ['read', 'upload', 'review'] as const;
-export type TokenScope = (typeof TOKEN_SCOPES)[number];
-
-/** The token scope that goes with a permission: reading, changing captures, or review work. */
-export function scopeFor(permission: Permission): TokenScope {
-	if (permission === 'project:read' || permission === 'project:internal') return 'read';
-	if (permission === 'capture:write') return 'upload';
-	return 'review';
+export function scopeFor(permission: Permission): TokenScope | null {
+	return TOKEN_SCOPES.find((s) => scopesAllow([s], permission)) ?? null;
 }
 
 /** Refusals an operation can answer with; each is the Problem JSON shape. */
-export type ErrorStatus = 400 | 401 | 403 | 404 | 409 | 413 | 422 | 503;
+export type ErrorStatus = 400 | 401 | 403 | 404 | 409 | 413 | 422 | 429 | 503;
 
 export interface ApiOperation {
 	method: HttpMethod;
@@ -59,9 +54,9 @@ export interface ApiOperation {
 	/** Answers other than refusals, by status. */
 	responses: Record<number, ZodOpenApiResponseObject>;
 	/**
-	 * Refusals this operation gives besides the ones every operation of its kind can give (401 and
-	 * 503 when signed-in, 404 for a route with ids, 403 for a role that may not or a change from
-	 * another site, 413 with a body), with what each means here.
+	 * Refusals this operation gives besides the ones every operation of its kind can give (401, 429
+	 * and 503 when signed-in, 404 for a route with ids, 403 for a role or token that may not or a
+	 * change from another site, 413 with a body), with what each means here.
 	 */
 	errors?: Partial<Record<ErrorStatus, string>>;
 }
@@ -104,6 +99,8 @@ export function pathParamsSchema(route: string): z.ZodObject | undefined {
 export interface DescriptionLimits {
 	uploadMaxBytes: number;
 	bodyMaxBytes: number;
+	/** Requests a minute one API token may make. */
+	tokenRequestsPerMinute: number;
 	/** The scripted upload route's body cap, in words. */
 	uploadBodyDescription: string;
 }
@@ -118,18 +115,25 @@ export function rolesAllowed(permission: Permission): string[] {
 const everyRoleMay = (permission: Permission) => rolesAllowed(permission).length === ROLES.length;
 
 /** Every refusal of an operation, with what it means there: the common ones, then its own. */
-export function refusalsOf(op: ApiOperation, bodyLimitBytes: number): Partial<Record<ErrorStatus, string>> {
+export function refusalsOf(op: ApiOperation, bodyLimitBytes: number, limits: Pick<DescriptionLimits, 'tokenRequestsPerMinute'>): Partial<Record<ErrorStatus, string>> {
 	const out: Partial<Record<ErrorStatus, string>> = {};
-	const signedIn = op.access !== 'public';
-	if (signedIn) out[401] = 'No session cookie or bearer token, or one that has ended, expired or been revoked.';
+	const permission = op.access === 'public' ? null : op.access;
+	if (permission) {
+		out[401] =
+			'Not signed in: no session cookie or bearer token, or a session that has ended. A token that is not valid, has expired, was revoked or ended with its account\'s sessions is answered with code invalid_token and a WWW-Authenticate header saying which.';
+	}
 	const reasons403: string[] = [];
-	if (signedIn && !everyRoleMay(op.access as Permission)) reasons403.push(`your role does not allow this (it needs ${op.access}: ${rolesAllowed(op.access as Permission).join(', ')})`);
-	if (signedIn) reasons403.push(`the token lacks the "${scopeFor(op.access as Permission)}" scope`);
+	if (permission && !everyRoleMay(permission)) reasons403.push(`your role does not allow this (it needs ${permission}: ${rolesAllowed(permission).join(', ')})`);
+	if (permission) {
+		const scope = scopeFor(permission);
+		reasons403.push(scope ? `the token lacks the "${scope}" scope` : 'the request came with a token (no scope opens this)');
+	}
 	if (STATE_CHANGING.includes(op.method)) reasons403.push('a change sent with cookies from another site, or with cookies and no Origin header');
 	if (reasons403.length) out[403] = `Refused: ${reasons403.join('; or ')}.`;
 	if (routeParams(op.route).length > 0) out[404] = 'No such thing, or it lies outside your reach (the same answer, on purpose).';
 	if (op.body) out[413] = `The request body is larger than the ${describeBytes(bodyLimitBytes)} allowed here (code too_large).`;
-	if (signedIn) out[503] = 'The database or object storage is briefly unreachable (code unavailable); try again.';
+	if (permission) out[429] = `More than ${limits.tokenRequestsPerMinute} requests a minute with one API token (code rate_limited); Retry-After says in how many seconds to try again.`;
+	if (permission) out[503] = 'The database or object storage is briefly unreachable (code unavailable); try again.';
 	return { ...out, ...op.errors };
 }
 
