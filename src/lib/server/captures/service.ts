@@ -19,6 +19,12 @@ import { isSweepOfOrganization } from '../queries/sweeps';
 import { readWavHeader, WavHeaderError, type WavHeader } from './wav-header';
 import type { CreateCaptureInput, updateCaptureSchema } from '../../schemas/captures';
 import type { Scope } from '../auth/access';
+import { getSweep, listSweeps } from '../queries/sweeps';
+import { knownObjectKeys } from '../queries/objects';
+import { isPendingStatus } from '../../captures/status';
+import { sweepMismatch } from '../../captures/sweep-fit';
+import { roleAllows } from '../../roles';
+import type { ChangeReferenceInput } from '../../schemas/capture-reference';
 
 /**
  * The position a capture goes to: one of its visit's, or the visit's position of a new label —
@@ -263,4 +269,127 @@ export async function removeAbandonedUploads(k: Knex, olderThanHours = 24, s: St
 		if (capture) await removeCapture({ organizationId: row.organizationId, user: null }, capture, s, 'capture.abandoned');
 	}
 	return stale.length;
+}
+
+// ---- The played sweep of a recorded sweep, changed after its upload ------------------------
+
+const STILL_ON_ITS_WAY = 'This capture is still being uploaded or analysed: its sweep can be changed once it is done.';
+
+/** What a recorded sweep was played with: a test signal, an uploaded reference file, or nothing. */
+export type PlayedReference = { kind: 'signal'; sweepDefinitionId: number; name: string; durationS: number } | { kind: 'uploaded' } | { kind: 'none' };
+
+/** The capture page's panel: what the capture was played with, and what it may be changed to. */
+export async function referenceChoices(scope: Scope, captureId: number) {
+	const k = db();
+	const capture = (await captureRows.getCapture(k, captureId))!;
+	const canChange = capture.kind === 'sweep' && roleAllows(scope.role, 'capture:write');
+	const sweep = capture.sweepDefinitionId !== null ? await getSweep(k, capture.sweepDefinitionId) : undefined;
+	const current: PlayedReference = sweep
+		? { kind: 'signal', sweepDefinitionId: sweep.id, name: sweep.name, durationS: sweep.durationS }
+		: capture.referenceObjectKey
+			? { kind: 'uploaded' }
+			: { kind: 'none' };
+	const sweeps = canChange ? await listSweeps(k, scope.organizationId) : [];
+	return {
+		kind: capture.kind,
+		status: capture.status,
+		recordingS: capture.durationS,
+		current,
+		sweeps: sweeps.map((s) => ({ id: s.id, name: s.name, durationS: s.durationS })),
+		canChange
+	};
+}
+
+/** Refusals that do not depend on what the capture is changed to. */
+function checkChangeable(capture: CaptureRow): void {
+	if (capture.kind !== 'sweep') throw new Problem(422, 'An impulse response is analysed as it is: it has no played sweep to change.', { code: 'not_a_sweep' });
+	if (isPendingStatus(capture.status)) throw conflict(STILL_ON_ITS_WAY, { code: 'capture_busy' });
+}
+
+/**
+ * A presigned PUT for another reference file of a recorded sweep. Nothing changes yet: the file
+ * is applied with `changeReference` once it is stored (an object never applied is swept after a
+ * day, as no row names it).
+ */
+export async function announceReference(scope: Scope, captureId: number, input: { filename: string; sizeBytes: number }, s: Storage = storage()) {
+	const capture = (await captureRows.getCapture(db(), captureId))!;
+	checkChangeable(capture);
+	await s.ping();
+	const referenceKey = newObjectKey('references');
+	const url = await s.presignPut(referenceKey, WAV_TYPE, input.sizeBytes);
+	return { referenceKey, upload: { url, method: 'PUT' as const, headers: { 'content-type': WAV_TYPE } } };
+}
+
+const describeReference = (r: { sweepDefinitionId: number | null; referenceObjectKey: string | null }) =>
+	r.sweepDefinitionId !== null ? { sweepDefinitionId: r.sweepDefinitionId } : r.referenceObjectKey ? { referenceFile: true } : {};
+
+/**
+ * Change the played sweep of a settled recorded sweep — another test signal of the organization,
+ * or a reference file uploaded under a key `announceReference` handed out — and analyse it again.
+ * Refused (nothing changed) when it is still on its way, when the recording is too short for the
+ * chosen test signal, or when the visit already holds the same file on the same channel with that
+ * reference (a duplicate). The replaced reference file is deleted once no row names it; a refused
+ * new one is deleted at once.
+ */
+export async function changeReference(scope: Scope, captureId: number, input: ChangeReferenceInput, s: Storage = storage()): Promise<CaptureRow> {
+	const k = db();
+	const capture = (await captureRows.getCapture(k, captureId))!;
+	const newKey = input.referenceKey ?? null;
+	// A new file the change does not take is not kept — once it is known to be no row's file.
+	let newKeyIsFree = false;
+	const discardNew = async () => {
+		if (newKey && newKeyIsFree) await s.remove(newKey).catch(() => undefined); // else the orphaned-object sweep takes it
+	};
+	let next: { sweepDefinitionId: number | null; referenceObjectKey: string | null };
+	try {
+		checkChangeable(capture);
+		if (input.sweepDefinitionId !== undefined) {
+			const sweep = await getSweep(k, input.sweepDefinitionId);
+			if (!sweep || !(await isSweepOfOrganization(k, sweep.id, scope.organizationId))) {
+				throw new Problem(422, 'Pick a test signal of this organization.', { field: 'sweepDefinitionId' });
+			}
+			if (capture.sweepDefinitionId === sweep.id) {
+				throw new Problem(422, `This capture is already analysed with "${sweep.name}": run its analysis again instead.`, { field: 'sweepDefinitionId', code: 'unchanged' });
+			}
+			const mismatch = capture.durationS !== null ? sweepMismatch(capture.durationS, sweep) : null;
+			if (mismatch) throw new Problem(422, mismatch, { field: 'sweepDefinitionId', code: 'sweep_mismatch' });
+			next = { sweepDefinitionId: sweep.id, referenceObjectKey: null };
+		} else {
+			if ((await knownObjectKeys(k, 'references/', [newKey!])).size > 0) {
+				throw conflict('That reference file belongs to a capture already: upload the file for this one.', { field: 'referenceKey' });
+			}
+			newKeyIsFree = true;
+			await checkObject(s, newKey!, null, null);
+			next = { sweepDefinitionId: null, referenceObjectKey: newKey };
+		}
+	} catch (e) {
+		await discardNew();
+		throw e;
+	}
+	const recording = { sha256: capture.sha256, channel: capture.channel, ...next };
+	try {
+		await transaction(async (trx) => {
+			await captureRows.lockSessionForCaptures(trx, capture.sessionId);
+			// Same content, channel and reference as another capture of the visit: that one stands.
+			const duplicate = recording.sha256 ? await captureRows.findDuplicate(trx, capture.sessionId, { ...recording, sha256: recording.sha256 }, captureId) : undefined;
+			if (duplicate) throw duplicateProblem(duplicate);
+			if (!(await captureRows.changeReferenceAndRequeue(trx, captureId, next))) throw conflict(STILL_ON_ITS_WAY, { code: 'capture_busy' });
+			await enqueue(trx, 'analyse-capture', { captureId });
+			await audit(trx, scope, 'capture.reference_changed', 'capture', captureId, { from: describeReference(capture), to: describeReference(next) });
+		});
+	} catch (e) {
+		await discardNew();
+		if (isDuplicateKey(e) && recording.sha256) {
+			const duplicate = await captureRows.findDuplicate(k, capture.sessionId, { ...recording, sha256: recording.sha256 }, captureId);
+			if (duplicate) throw duplicateProblem(duplicate);
+		}
+		throw e;
+	}
+	// The replaced file, unless some row still names it; if the store is down now, the
+	// orphaned-object sweep removes it later.
+	const old = capture.referenceObjectKey;
+	if (old && old !== next.referenceObjectKey && !(await knownObjectKeys(k, 'references/', [old])).has(old)) {
+		await s.remove(old).catch(() => undefined);
+	}
+	return (await captureRows.getCapture(k, captureId))!;
 }

@@ -2,6 +2,7 @@
 // the file of its resource (or a new file listed here).
 import type { ApiOperation, DescriptionLimits } from '../registry';
 import { captureOperations } from './captures';
+import { captureReferenceOperations } from './capture-reference';
 import { comparisonOperations } from './comparisons';
 import { descriptionOperations } from './description';
 import { photoOperations } from './photos';
@@ -10,5 +11,5 @@ import { sessionOperations } from './sessions';
 import { sweepOperations } from './sweeps';
 
 export function apiOperations(limits: DescriptionLimits): ApiOperation[] {
-	return [...captureOperations, ...sessionOperations(limits), ...comparisonOperations, ...roomOperations, ...sweepOperations, ...photoOperations, ...descriptionOperations];
+	return [...captureOperations, ...captureReferenceOperations(limits), ...sessionOperations(limits), ...comparisonOperations, ...roomOperations, ...sweepOperations, ...photoOperations, ...descriptionOperations];
 }
