@@ -39,7 +39,8 @@ export const captureOperations: ApiOperation[] = [
 		resource: 'Captures',
 		operationId: 'deleteCapture',
 		summary: 'Delete a capture',
-		description: 'Removes its objects from storage, then its analysis, jobs and row; the deletion is audited.',
+		description:
+			'Removes its objects from storage, then its analysis, jobs and row; the deletion is audited. A capture whose file never arrived can be taken back this way: a new position its announcement made goes with it, unless another capture or a person\'s edit has kept it.',
 		access: 'capture:write',
 		responses: { 204: { description: 'Deleted.' } }
 	},
