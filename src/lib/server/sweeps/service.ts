@@ -6,6 +6,7 @@ import { audit } from '../audit';
 import { db } from '../db';
 import { newObjectKey, storage, type Storage } from '../storage';
 import { transaction } from '../transaction';
+import { notFound } from '../problem';
 import type { Scope } from '../auth/access';
 import { getSweep, insertSweep, listSweeps, type SweepRow } from '../queries/sweeps';
 import type { sweepDefinitionSchema } from '../../schemas/captures';
@@ -14,6 +15,11 @@ export type SweepInput = z.infer<typeof sweepDefinitionSchema>;
 export type { SweepRow };
 
 const WAV_TYPE = 'audio/wav';
+
+const isMissingObject = (e: unknown) => {
+	const x = e as { name?: string; $metadata?: { httpStatusCode?: number } };
+	return x?.name === 'NoSuchKey' || x?.name === 'NotFound' || x?.$metadata?.httpStatusCode === 404;
+};
 
 export function sweepsOf(organizationId: number): Promise<SweepRow[]> {
 	return listSweeps(db(), organizationId);
@@ -66,7 +72,14 @@ export async function createSweep(scope: Scope, input: SweepInput, s: Storage = 
 /** The stored WAV of a test signal, with a file name that says what it is. */
 export async function sweepFile(sweepId: number, s: Storage = storage()): Promise<{ name: string; bytes: Uint8Array }> {
 	const sweep = (await getSweep(db(), sweepId))!;
-	const bytes = await s.getBytes(sweep.objectKey);
+	let bytes: Uint8Array;
+	try {
+		bytes = await s.getBytes(sweep.objectKey);
+	} catch (e) {
+		// The row outlived its object (removed by hand, a store restored from an older copy).
+		if (isMissingObject(e)) throw notFound('This test signal is no longer stored: make it again.');
+		throw e;
+	}
 	const name = `ringdown-sweep-${Math.round(sweep.f1Hz)}-${Math.round(sweep.f2Hz)}Hz-${sweep.durationS}s-${sweep.sampleRate / 1000}k.wav`;
 	return { name, bytes };
 }

@@ -11,6 +11,7 @@ export const sweepOperations: ApiOperation[] = [
 		summary: 'A test signal as a WAV file',
 		description: 'The exponential sine sweep exactly as stored: recordings of it are deconvolved against these samples. Measurement sweeps are loud: start quiet and protect everyone\'s hearing.',
 		access: 'project:internal',
-		responses: { 200: { description: 'The WAV file, as a download.', content: { 'audio/wav': { schema: binary('A WAV file.') } } } }
+		responses: { 200: { description: 'The WAV file, as a download.', content: { 'audio/wav': { schema: binary('A WAV file.') } } } },
+		errors: { 404: 'No such test signal within your reach, or its file is no longer stored.' }
 	}
 ];
