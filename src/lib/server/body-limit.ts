@@ -1,7 +1,9 @@
 // Request bodies are capped before any route reads them. Browsers upload recordings straight to
 // object storage, so pages and API routes need only small bodies; the scripted upload route is
 // the one exception. A declared length over the cap is refused at once; a body without
-// Content-Length (chunked) is counted as it arrives and refused when it passes the cap.
+// Content-Length (chunked) is counted as it arrives and refused when it passes the cap. The
+// upload route streams its body to storage and counts each file against UPLOAD_MAX_BYTES
+// itself, so the cap here only bounds the whole (two files and the fields).
 import { json, type RequestEvent } from '@sveltejs/kit';
 import type { AppConfig } from './config';
 import { PHOTO_BODY_MAX_BYTES } from '../schemas/photos';
@@ -115,7 +117,13 @@ function discard(body: ReadableStream<Uint8Array>): void {
 	discardRest(body.getReader());
 }
 
-function discardRest(reader: ReadableStreamDefaultReader<Uint8Array>): void {
+/** The same for a route that refuses before (or while) reading its body. */
+export function discardRequestBody(request: Request): void {
+	if (request.body && !request.bodyUsed && !request.body.locked) discard(request.body);
+}
+
+/** The same for the rest of a body a route was reading (with `reader`) when it refused. */
+export function discardRest(reader: ReadableStreamDefaultReader<Uint8Array>): void {
 	const timer = setTimeout(() => void reader.cancel().catch(() => {}), DISCARD_MAX_MS);
 	void (async () => {
 		let seen = 0;

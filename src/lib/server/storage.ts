@@ -1,5 +1,6 @@
 // Object storage through the AWS SDK only, so any S3-compatible service is a configuration change.
 import {
+	AbortMultipartUploadCommand,
 	DeleteObjectCommand,
 	HeadBucketCommand,
 	GetObjectCommand,
@@ -10,6 +11,8 @@ import {
 	type PutObjectCommandInput
 } from '@aws-sdk/client-s3';
 import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
+import { Upload } from '@aws-sdk/lib-storage';
+import type { Readable } from 'node:stream';
 import { randomUUID } from 'node:crypto';
 import { config, type AppConfig } from './config';
 import { Problem, unavailable } from './problem';
@@ -46,10 +49,21 @@ export interface Storage {
 	head(key: string): Promise<{ size: number; contentType: string | undefined } | null>;
 	getBytes(key: string, range?: { start: number; end: number }): Promise<Uint8Array>;
 	put(key: string, body: PutObjectCommandInput['Body'], contentType: string, contentLength?: number): Promise<void>;
+	/**
+	 * Store a stream of unknown length as it arrives (S3 multipart upload, parts of
+	 * UPLOAD_PART_BYTES, at most UPLOAD_PARTS_IN_FLIGHT held at once). When the stream fails,
+	 * the upload is dropped and the stream's own error is thrown; nothing is stored.
+	 */
+	upload(key: string, body: Readable, contentType: string): Promise<void>;
 	remove(key: string): Promise<void>;
 	/** The objects under a prefix, a page at a time (`after` is the previous page's `next`). */
 	list(prefix: string, after?: string): Promise<{ objects: { key: string; lastModified: Date }[]; next: string | undefined }>;
 }
+
+/** S3's smallest part (all but the last): what a streamed upload holds per part in memory. */
+export const UPLOAD_PART_BYTES = 5 * 1024 * 1024;
+/** Parts of one streamed upload sent at once; the stream waits while they are all in flight. */
+const UPLOAD_PARTS_IN_FLIGHT = 2;
 
 const isNotFound = (e: unknown) => {
 	const x = e as { name?: string; $metadata?: { httpStatusCode?: number } };
@@ -112,6 +126,26 @@ export function createStorage(c: AppConfig = config()): Storage {
 		},
 		async put(key, body, contentType, contentLength) {
 			await guard(() => s3.send(new PutObjectCommand({ Bucket, Key: key, Body: body, ContentType: contentType, ContentLength: contentLength })));
+		},
+		async upload(key, body, contentType) {
+			let bodyError: unknown = null;
+			body.once('error', (e) => (bodyError ??= e));
+			// A body that fits one part is stored with one PUT; a longer one as a multipart upload.
+			// Its parts are dropped here (not by the library, whose own clean-up error would hide
+			// the cause); a lifecycle rule on the bucket is the backstop for a server that dies.
+			const upload = new Upload({
+				client: s3,
+				params: { Bucket, Key: key, Body: body, ContentType: contentType },
+				partSize: UPLOAD_PART_BYTES,
+				queueSize: UPLOAD_PARTS_IN_FLIGHT,
+				leavePartsOnError: true
+			});
+			try {
+				await guard(() => upload.done());
+			} catch (e) {
+				if (upload.uploadId) await s3.send(new AbortMultipartUploadCommand({ Bucket, Key: key, UploadId: upload.uploadId })).catch(() => {});
+				throw bodyError ?? e;
+			}
 		},
 		async remove(key) {
 			await guard(() => s3.send(new DeleteObjectCommand({ Bucket, Key: key })));

@@ -17,6 +17,9 @@ import { ensurePosition, isPositionOfSession, keepPosition, lockPosition, remove
 import { clearAnalysedNotice } from '../queries/sessions';
 import { isSweepOfOrganization } from '../queries/sweeps';
 import { readWavHeader, WavHeaderError, type WavHeader } from './wav-header';
+import { readCaptureUpload } from './multipart';
+import { checkStagedHeader, stageFile } from './staged-upload';
+import { discardRequestBody } from '../body-limit';
 import type { CreateCaptureInput, updateCaptureSchema } from '../../schemas/captures';
 import type { Scope } from '../auth/access';
 import { getSweep, listSweeps } from '../queries/sweeps';
@@ -60,8 +63,17 @@ function duplicateProblem(duplicate: CaptureRow) {
 	});
 }
 
-/** Create the capture row (awaiting upload) and presigned PUTs for its file(s). */
-export async function createCapture(scope: Scope, sessionId: number, input: CreateCaptureInput, s: Storage = storage()): Promise<CreatedCapture> {
+/**
+ * Create the capture row (awaiting upload) and presigned PUTs for its file(s). `stored` names
+ * objects the server has stored already (a scripted upload); the row takes their keys.
+ */
+export async function createCapture(
+	scope: Scope,
+	sessionId: number,
+	input: CreateCaptureInput,
+	s: Storage = storage(),
+	stored?: { objectKey: string; referenceObjectKey: string | null }
+): Promise<CreatedCapture> {
 	const k = db();
 	const recording = { sha256: input.sha256, channel: input.channel, sweepDefinitionId: input.sweepDefinitionId ?? null, referenceObjectKey: null as string | null };
 	if (input.sweepDefinitionId !== undefined && !(await isSweepOfOrganization(k, input.sweepDefinitionId, scope.organizationId))) {
@@ -69,8 +81,8 @@ export async function createCapture(scope: Scope, sessionId: number, input: Crea
 	}
 	// Presigning works offline, so ask the store first: if it is down, say so now and write nothing.
 	await s.ping();
-	const objectKey = newObjectKey('captures');
-	const referenceObjectKey = input.reference ? newObjectKey('references') : null;
+	const objectKey = stored?.objectKey ?? newObjectKey('captures');
+	const referenceObjectKey = stored ? stored.referenceObjectKey : input.reference ? newObjectKey('references') : null;
 	recording.referenceObjectKey = referenceObjectKey;
 	// Presign first: if storage is misconfigured nothing has been written yet.
 	const url = await s.presignPut(objectKey, WAV_TYPE, input.sizeBytes);
@@ -170,21 +182,44 @@ export async function confirmUpload(scope: Scope, captureId: number, s: Storage 
 	return (await captureRows.getCapture(k, captureId))!;
 }
 
-/** Upload through the server (for scripted clients): same checks, streamed to storage. */
-export async function uploadThroughServer(scope: Scope, sessionId: number, input: CreateCaptureInput, file: File, reference: File | null, s: Storage = storage()): Promise<CaptureRow> {
-	const created = await createCapture(scope, sessionId, input, s);
+/**
+ * Upload through the server (for scripted clients), streamed: each file of the multipart body
+ * goes to storage as it arrives, under a key of its own, counted, hashed and its header checked
+ * on the way (see staged-upload.ts), so memory holds a few parts of it, never the file. Size and
+ * SHA-256 are known when the body has ended; then the announcement is checked as the JSON
+ * route's is (duplicates included), and the capture is created over the stored objects and
+ * confirmed. Whatever is refused or fails leaves no row, and the objects are removed (if the
+ * store is down by then, the orphaned-object sweep removes them a day later).
+ */
+export async function uploadThroughServer(scope: Scope, sessionId: number, request: Request, s: Storage = storage()): Promise<CaptureRow> {
 	try {
-		// The multipart body is already in memory (the framework parses it whole), so hand the
-		// bytes over as they are.
-		await s.put(created.capture.objectKey, new Uint8Array(await file.arrayBuffer()), WAV_TYPE, file.size);
-		if (reference && created.capture.referenceObjectKey) {
-			await s.put(created.capture.referenceObjectKey, new Uint8Array(await reference.arrayBuffer()), WAV_TYPE, reference.size);
-		}
+		await s.ping(); // before the body is read: a store that is down is said so at once
 	} catch (e) {
-		await removeCapture(scope, created.capture, s, 'capture.refused', { reason: 'upload to storage failed' });
+		discardRequestBody(request);
 		throw e;
 	}
-	return confirmUpload(scope, created.capture.id, s);
+	const c = config();
+	const limits = { maxBytes: c.UPLOAD_MAX_BYTES, maxDurationS: c.ANALYSIS_MAX_DURATION_S };
+	const staged: string[] = [];
+	let created: CaptureRow | null = null;
+	try {
+		const { input, file, reference } = await readCaptureUpload(request, (part) => {
+			const key = newObjectKey(part.name === 'file' ? 'captures' : 'references');
+			staged.push(key);
+			return stageFile(s, key, part, limits);
+		});
+		await checkStagedHeader(s, file, { name: 'file' }, input.channel, limits.maxDurationS);
+		if (reference) await checkStagedHeader(s, reference, { name: 'reference' }, null, limits.maxDurationS);
+		created = (await createCapture(scope, sessionId, input, s, { objectKey: file.key, referenceObjectKey: reference?.key ?? null })).capture;
+		return await confirmUpload(scope, created.id, s);
+	} catch (e) {
+		// A refusal at confirm has removed the row already; one that stays (the store went down
+		// meanwhile) goes with its objects here.
+		const row = created && (await captureRows.getCapture(db(), created.id));
+		if (row) await removeCapture(scope, row, s, 'capture.refused', { reason: e instanceof Error ? e.message : String(e) }).catch(() => {});
+		for (const key of staged) await s.remove(key).catch(() => {});
+		throw e;
+	}
 }
 
 /** Rename the file label, or move the capture to another (or a new) position of its visit. */
