@@ -1,7 +1,7 @@
 // A photo as it is stored: turned upright by its EXIF orientation, shrunk to a display size and a
 // thumbnail, and re-encoded as JPEG without any metadata (no EXIF, so no GPS position, camera
 // serial or time; no XMP, no IPTC). sharp (libvips) does the decoding and resizing.
-import sharp from 'sharp';
+import sharp, { type Metadata, type Sharp, type SharpOptions } from 'sharp';
 import { PHOTO_DISPLAY_MAX_PX, PHOTO_MAX_PIXELS, PHOTO_THUMB_MAX_PX, PHOTO_TYPES_TEXT } from '../../schemas/photos';
 
 export type PhotoFormat = 'jpeg' | 'png' | 'webp';
@@ -49,7 +49,7 @@ export interface PreparedPhoto {
 const NOT_AN_IMAGE = `This file is not a ${PHOTO_TYPES_TEXT} image. Take or export the photo as one of those and upload it again.`;
 const UNREADABLE = 'This image could not be read: the file may be damaged or cut short. Upload it again, or export it anew.';
 
-async function render(source: sharp.Sharp, maxPx: number, quality: number): Promise<Rendition> {
+async function render(source: Sharp, maxPx: number, quality: number): Promise<Rendition> {
 	const { data, info } = await source
 		.clone()
 		.resize({ width: maxPx, height: maxPx, fit: 'inside', withoutEnlargement: true })
@@ -65,8 +65,8 @@ async function render(source: sharp.Sharp, maxPx: number, quality: number): Prom
 export async function preparePhoto(bytes: Uint8Array): Promise<PreparedPhoto> {
 	const format = sniffPhotoFormat(bytes);
 	if (!format) throw new PhotoImageError(NOT_AN_IMAGE);
-	const options: sharp.SharpOptions = { limitInputPixels: PHOTO_MAX_PIXELS, failOn: 'error', autoOrient: true };
-	let meta: sharp.Metadata;
+	const options: SharpOptions = { limitInputPixels: PHOTO_MAX_PIXELS, failOn: 'error', autoOrient: true };
+	let meta: Metadata;
 	try {
 		meta = await sharp(bytes, options).metadata();
 	} catch {
