@@ -109,7 +109,14 @@ export const storedAnalysisSchema = z
 	})
 	.meta({ id: 'StoredAnalysis' });
 
-export const captureBandsExportSchema = z.object({ schema: z.literal(CAPTURE_BANDS_SCHEMA), bands: z.array(bandValuesSchema), broadband: bandValuesSchema }).loose();
+export const captureBandsExportSchema = z
+	.object({
+		schema: z.literal(CAPTURE_BANDS_SCHEMA),
+		note: z.string().nullable().meta({ description: 'The capture\'s note on its conditions ("door open"), null when it has none.' }),
+		bands: z.array(bandValuesSchema),
+		broadband: bandValuesSchema
+	})
+	.loose();
 
 const averagesSchema = z.record(z.string(), z.unknown()).meta({ description: 'Per metric (edtS, t20S, t30S, c50Db, c80Db, d50, tsMs): mean, spread and count over the positions.' });
 
