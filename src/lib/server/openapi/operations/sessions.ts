@@ -59,15 +59,15 @@ export function sessionOperations(limits: DescriptionLimits): ApiOperation[] {
 			operationId: 'uploadCapture',
 			summary: 'Upload a file through the server (scripts)',
 			description:
-				'One request instead of three: multipart/form-data with the file in file (and optionally the played sweep in reference) and the metadata as text fields. The checks are those of announceCapture and confirmCaptureUpload; the answer is the queued capture. This is the one route that takes a large body.',
+				'One request instead of three: multipart/form-data with the metadata as text fields — best sent before the file parts, so a bad field is refused before the file is read — then the file in file (and optionally the played sweep in reference). The body streams to storage while each file\'s size and SHA-256 are measured (a sha256 field, when given, must match). The checks are those of announceCapture and confirmCaptureUpload, and a refusal leaves nothing stored; the answer is the queued capture. This is the one route that takes a large body.',
 			access: 'capture:write',
 			body: { content: { 'multipart/form-data': captureUploadFormSchema(limits.uploadMaxBytes).meta({ id: 'CaptureUploadForm' }) } },
 			responses: { 201: { description: 'The capture, queued for analysis.', content: { 'application/json': { schema: captureEnvelopeSchema } } } },
 			errors: {
-				400: 'The body is not multipart/form-data.',
+				400: 'Not multipart/form-data (code not_multipart), a malformed or cut-off form (codes bad_form, incomplete), a field longer than 4096 bytes, or more than 32 fields.',
 				409: 'This file is already in the visit (code duplicate; duplicateOf is the id of that capture).',
-				413: `The body is larger than the ${limits.uploadBodyDescription} allowed here (a file and its reference, each up to the upload limit, plus the fields).`,
-				422: 'No file part, a field is not valid (code invalid, errors per field), the file is not a readable WAV, or it has no such channel.'
+				413: `The body is larger than the ${limits.uploadBodyDescription} allowed here (a file and its reference, each up to the upload limit, plus the fields), or a file passes the upload limit as it arrives (code too_large).`,
+				422: 'No file part, a file in a part other than file and reference, a field that is not valid (code invalid, errors per field), a sha256 field that is not the file\'s, a file that is not a readable WAV, or no such channel.'
 			}
 		},
 		{
