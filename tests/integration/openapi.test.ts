@@ -7,6 +7,8 @@ import { validate } from '@readme/openapi-parser';
 import { testDb } from '../helpers/db';
 import { BASE_URL } from '../helpers/env';
 import { acousticianWithProject, Client } from '../helpers/http';
+import { makeApiToken, withToken } from '../helpers/api-tokens';
+import { makeUser } from '../helpers/factories';
 import { ownedIds } from '../helpers/owned-ids';
 import { fillRoute } from '../helpers/routes';
 import { apiOperations } from '../../src/lib/server/openapi/operations';
@@ -22,12 +24,15 @@ let k: Knex;
 let doc: Doc;
 let acoustician: Client;
 let ids: Record<string, number | string>;
+let readToken: string;
 
 beforeAll(async () => {
 	k = testDb();
 	const made = await acousticianWithProject(k);
 	acoustician = made.acoustician;
 	ids = await ownedIds(k, made.tree);
+	const project = await k('projects').where({ id: made.tree.projectId }).first('organization_id');
+	readToken = (await makeApiToken(k, (await makeUser(k, project.organization_id, 'acoustician')).id, ['read'])).token;
 	const res = await fetch(`${BASE_URL}/api/openapi.json`);
 	expect(res.status).toBe(200);
 	doc = (await res.json()) as Doc;
@@ -67,6 +72,41 @@ describe('/developers/api', () => {
 		const sources = [...html.matchAll(/<(?:script|link)\b[^>]*(?:src|href)="([^"]+)"/g)].map((m) => m[1]);
 		expect(sources.length).toBeGreaterThan(0);
 		for (const s of sources) expect(s, s).toMatch(/^(\/|\.\.?\/)/);
+	});
+});
+
+// Before the calls below: they end by deleting the capture.
+describe('requests with an API token', () => {
+	const ops = apiOperations({ uploadMaxBytes: 1, bodyMaxBytes: 1, tokenRequestsPerMinute: 1, uploadBodyDescription: '' }).filter((op) => op.access !== 'public');
+
+	// Every operation a read-only token may not call: those whose scope is another.
+	const beyondRead = ops.filter((op) => !['project:read', 'project:internal'].includes(op.access));
+
+	it('has operations beyond a read token to try', () => expect(beyondRead.length).toBeGreaterThan(5));
+
+	it.each(beyondRead.map((op) => [op.method.toUpperCase(), op.route, op] as const))('%s %s refuses a read-only token with the 403 it lists', async (method, route, op) => {
+		const res = await withToken(readToken, method, fillRoute(route, ids)!, { body: '{}', headers: { 'content-type': 'application/json' } });
+		expect(res.status, await res.text()).toBe(403);
+		const entry = doc.paths[route.replace(/\[(\w+)(?:=\w+)?\]/g, '{$1}')][op.method] as unknown as { responses: Record<string, { description: string }>; 'x-token-scope': string };
+		expect(entry['x-token-scope']).not.toBe('read');
+		expect(entry.responses['403'].description).toContain(`"${entry['x-token-scope']}" scope`);
+	});
+
+	it('answers a token that is not one 401 with invalid_token, as the description says', async () => {
+		const res = await withToken('rdt_' + 'x'.repeat(43), 'GET', fillRoute('/api/sessions/[sessionId=id]/captures', ids)!);
+		expect(res.status).toBe(401);
+		expect(res.headers.get('www-authenticate')).toContain('invalid_token');
+		expect(((await res.json()) as { code: string }).code).toBe('invalid_token');
+		const listed = doc.paths['/api/sessions/{sessionId}/captures'].get.responses['401'] as { description: string };
+		expect(listed.description).toContain('invalid_token');
+	});
+
+	it('reads with a read token, in the described shape', async () => {
+		const op = ops.find((o) => o.operationId === 'listVisitCaptures')!;
+		const res = await withToken(readToken, 'GET', fillRoute(op.route, ids)!);
+		expect(res.status).toBe(200);
+		const schema = op.responses[200].content!['application/json']!.schema;
+		expect(isZod(schema) && schema.safeParse(await res.json()).success).toBe(true);
 	});
 });
 
