@@ -92,6 +92,7 @@ describe('the played sweep of a recorded sweep', () => {
 		await panel.getByLabel('Change to').selectOption({ label: `Long 3 s ${stamp} (3.00 s)` });
 		expect(await panel.getByTestId('reference-mismatch').innerText()).toContain('1.60 s long, shorter than the 3.00 s sweep');
 		expect(await change.isDisabled()).toBe(true);
+		await shots(page, 'capture-played-sweep');
 
 		await panel.getByLabel('Change to').selectOption({ label: `Played 1 s ${stamp} (1.00 s)` });
 		// The page comes back by itself once the new analysis is done.
@@ -115,3 +116,14 @@ describe('the played sweep of a recorded sweep', () => {
 		expect(await seen(page.getByLabel('Broadband values'), 15_000)).toBe(true);
 	});
 });
+
+/** Screenshots at a desktop and a phone width when SCREENSHOT_DIR is set, to look at (not compared). */
+async function shots(page: Page, name: string): Promise<void> {
+	const dir = process.env.SCREENSHOT_DIR;
+	if (!dir) return;
+	for (const width of [1280, 390]) {
+		await page.setViewportSize({ width, height: 900 });
+		await page.screenshot({ path: join(dir, `${name}-${width}.png`), fullPage: true });
+	}
+	await page.setViewportSize({ width: 1280, height: 900 });
+}

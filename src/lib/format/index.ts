@@ -3,5 +3,5 @@ export { formatCount, formatNumber, formatPercent, formatSigned, MINUS, MISSING,
 export { DB_DECIMALS, formatDb, formatMs, formatMsRange, formatSeconds, formatWait, SECONDS_DECIMALS } from './quantities';
 export { formatBand, formatHz, formatHzAxis, formatHzRange, formatSampleRate } from './frequency';
 export { capitalise, formatList, formatRange } from './text';
-export { formatArea, formatCoefficient, formatRoomSize, formatRoomSizeBare, formatVolume, type RoomSize } from './room';
+export { formatArea, formatCoefficient, formatRoomLength, formatRoomSize, formatRoomSizeBare, formatVolume, roomLengthInput, roomLengthUnit, type RoomSize, type UnitSystem } from './room';
 export { formatDate, formatDateTime } from './date';

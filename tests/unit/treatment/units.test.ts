@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatInches, formatLength, formatMillimetres, inchesToMm, mmToInches, parseLength } from '../../../src/lib/treatment/units';
+import { formatFeetAndInches, formatInches, formatLength, formatMillimetres, inchesToMm, mmToInches, parseLength } from '../../../src/lib/treatment/units';
 
 // 1 in = 25.4 mm exactly (international yard and pound agreement, 1959).
 const IN = 25.4;
@@ -83,7 +83,7 @@ describe('parseLength', () => {
 		['', /enter a length/],
 		['   ', /enter a length/],
 		['abc', /not a length/],
-		['12 ft', /not a length/],
+		['12 yd', /not a length/],
 		['-5 mm', /negative/],
 		['7 3/0', /zero denominator/],
 		['1/0', /zero denominator/],
@@ -100,5 +100,84 @@ describe('parseLength', () => {
 			const back = parseLength(formatLength(mm, 'in'));
 			expect(Math.abs(back - mm)).toBeLessThanOrEqual(IN / 32 + 1e-9);
 		}
+	});
+});
+
+// Feet and inches at room scale. 1 ft = 12 in = 304.8 mm exactly: the international yard and
+// pound agreement (1959) fixed 1 yd = 0.9144 m, so 1 in = 25.4 mm; NIST SP 811 (2008), Appendix B
+// lists foot = 3.048 E−01 m and inch = 2.54 E−02 m as exact.
+const FT = 12 * IN;
+
+describe('parseLength with feet', () => {
+	it.each([
+		["12'", 12 * FT],
+		['12 ft', 12 * FT],
+		['12 feet', 12 * FT],
+		['1 foot', FT],
+		['12.5 ft', 12.5 * FT],
+		['12′', 12 * FT],
+		['12’', 12 * FT], // a phone's apostrophe
+		[`12' 6"`, 12 * FT + 6 * IN],
+		[`12'6"`, 12 * FT + 6 * IN],
+		['12′ 6″', 12 * FT + 6 * IN],
+		['12’ 6”', 12 * FT + 6 * IN],
+		['12 ft 6 in', 12 * FT + 6 * IN],
+		['12 ft 6', 12 * FT + 6 * IN], // after the feet, a bare number is inches
+		["12' 6 1/2\"", 12 * FT + 6.5 * IN],
+		['12 ft 6-1/2 in', 12 * FT + 6.5 * IN],
+		["12' 0.75\"", 12 * FT + 0.75 * IN],
+		["12' 3/4", 12 * FT + 0.75 * IN],
+		["0' 11 15/16\"", (11 + 15 / 16) * IN],
+		['150 in', 150 * IN],
+		['3.8 m', 3800]
+	])('"%s" → %f mm', (input, mm) => {
+		expect(parseLength(input)).toBeCloseTo(mm, 9);
+	});
+
+	it('150 in is 12 ft 6 in, and 12 ft 6 in is 3810 mm exactly by the definition', () => {
+		expect(parseLength('150 in')).toBeCloseTo(parseLength(`12' 6"`), 9);
+		expect(parseLength('12 ft 6 in')).toBeCloseTo(3810, 9); // (12·12 + 6) in × 25.4 mm/in
+	});
+
+	it.each([
+		["12' 13\"", /below 12/],
+		["12' 12\"", /below 12/],
+		["12.5' 3\"", /whole feet before the inches/],
+		["12' 6 mm", /after the feet, give inches/],
+		["12' 3 ft", /after the feet, give inches/],
+		["12' -3\"", /negative/],
+		['1/2 ft', /part of a foot in inches/],
+		["-12'", /negative/],
+		["12''", /after the feet, give inches/]
+	])('"%s" is refused', (input, message) => {
+		expect(() => parseLength(input)).toThrow(message);
+	});
+});
+
+describe('formatFeetAndInches', () => {
+	it.each([
+		[3810, 16, '12′ 6″'],
+		[12 * FT, 16, '12′ 0″'],
+		[5200, 16, '17′ 0 3/4″'], // 204.724 in → 204 12/16 in
+		[3805, 16, '12′ 5 13/16″'], // 149.803 in → 149 13/16 in
+		[6 * IN, 16, '6″'],
+		[FT - 0.1, 16, '1′ 0″'], // 11.996″ carries into the next foot
+		[2600, 4, '8′ 6 1/4″'], // 102.362 in → 102 1/4 in to the quarter
+		[0, 16, '0″']
+	])('%f mm to 1/%i″ → %s', (mm, den, text) => {
+		expect(formatFeetAndInches(mm, den)).toBe(text);
+	});
+
+	it('writes keyboard marks for form fields, and parses back to within half a sixteenth', () => {
+		expect(formatFeetAndInches(3810 + 12.7, 16, { ascii: true })).toBe(`12' 6 1/2"`);
+		for (let mm = 0; mm <= 20_000; mm += 37.7) {
+			const back = parseLength(formatFeetAndInches(mm, 16, { ascii: true }));
+			expect(Math.abs(back - mm)).toBeLessThanOrEqual(IN / 32 + 1e-9);
+		}
+	});
+
+	it('refuses what is not a length', () => {
+		expect(() => formatFeetAndInches(Number.NaN)).toThrow(/cannot format/);
+		expect(() => formatFeetAndInches(100, 0)).toThrow(/denominator/);
 	});
 });

@@ -1,5 +1,6 @@
 import type { Knex } from 'knex';
 import type { Point, PositionRow } from '../../types/positions';
+import { formatRoomLength, type UnitSystem } from '../../format/room';
 
 export type { Point, PositionRow };
 
@@ -117,7 +118,8 @@ export async function deleteEmptyPosition(trx: Knex.Transaction, id: number): Pr
 /** Coordinates are optional, but a given point must be complete and inside the room. */
 export function checkPositionInRoom(
 	p: PositionInput,
-	room: { lengthM: number; widthM: number; heightM: number }
+	room: { lengthM: number; widthM: number; heightM: number },
+	system: UnitSystem = 'metric'
 ): Record<string, string> {
 	const errors: Record<string, string> = {};
 	for (const who of ['source', 'mic'] as const) {
@@ -128,7 +130,7 @@ export function checkPositionInRoom(
 		const axes = ['X', 'Y', 'Z'] as const;
 		xs.forEach((v, i) => {
 			if (v !== null && (v < 0 || v > limits[i]))
-				errors[`${who}${axes[i]}`] = `Must lie inside the room (0 – ${limits[i]} m).`;
+				errors[`${who}${axes[i]}`] = `Must lie inside the room (0 – ${system === 'imperial' ? formatRoomLength(limits[i], system) : `${limits[i]} m`}).`;
 		});
 	}
 	return errors;

@@ -2,6 +2,7 @@
 // when it is shown, the plan.
 import type { PlanReport } from '../../plans/report';
 import type { ComparisonModel, ProblemBandView } from '../../results/types';
+import type { UnitSystem } from '../../format/room';
 
 /** The engine's quality notes on one capture of the comparison, when they are shown. */
 export interface ReportQualityNote {
@@ -28,6 +29,8 @@ export interface ReportDocument {
 	targetBasis?: string;
 	/** Quality notes per capture: always for staff, for a client only where the consultant shares them. */
 	qualityNotes?: ReportQualityNote[];
+	/** The reader's unit system for room dimensions (default metric). */
+	unitSystem?: UnitSystem;
 }
 
 /** The document with its defaults filled in, as the sections draw it. */

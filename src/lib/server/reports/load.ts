@@ -16,7 +16,8 @@ export async function loadReportDocument(scope: Scope, comparisonId: number): Pr
 			advice: page.comparison.advice,
 			problemBands: page.problemBands,
 			plan: page.plan,
-			qualityNotes: page.qualityNotes
+			qualityNotes: page.qualityNotes,
+			unitSystem: scope.user.unitSystem
 		},
 		fileName: `ringdown-report-${page.room.name.replace(/[^\w-]+/g, '-').toLowerCase()}.pdf`
 	};

@@ -75,7 +75,8 @@ export async function renderReportPdf(report: ReportDocument): Promise<Uint8Arra
 		problemBands: [...report.problemBands].sort((a, b) => a.fLoHz - b.fLoHz || a.fHiHz - b.fHiHz),
 		plan: report.plan ?? null,
 		targetBasis: report.targetBasis ?? DEFAULT_TARGET_BASIS,
-		qualityNotes: report.qualityNotes ?? []
+		qualityNotes: report.qualityNotes ?? [],
+		unitSystem: report.unitSystem ?? 'metric'
 	});
 	stampFooters(pen, report.comparison.room.name);
 	doc.end();

@@ -62,7 +62,7 @@ export function drawTitleBlock(pen: ReportPen, report: ReportContent): void {
 	pen.gap(2);
 	pen.use('prose', TYPE.subtitle, COLOURS.inkSoft).flow(room.name);
 	pen.gap(12);
-	const dimensions = formatRoomSize(room);
+	const dimensions = formatRoomSize(room, report.unitSystem);
 	drawFactPanel(pen, [
 		[
 			{ label: 'Project', value: orMissing(report.projectName) },
@@ -72,7 +72,7 @@ export function drawTitleBlock(pen: ReportPen, report: ReportContent): void {
 		],
 		[
 			{ label: 'Room (L×W×H)', value: dimensions, face: 'mono' },
-			{ label: 'Volume', value: formatVolume(room.volumeM3), face: 'mono' },
+			{ label: 'Volume', value: formatVolume(room.volumeM3, report.unitSystem), face: 'mono' },
 			{ label: 'Use', value: orMissing(room.roomUse) },
 			{ label: 'Before', value: visitFact(baseline) },
 			{ label: 'After', value: visitFact(treated) },

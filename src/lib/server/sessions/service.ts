@@ -50,16 +50,16 @@ export function visitAverage(sessionId: number) {
 
 const DUPLICATE_LABEL = { duplicate: 'This visit already has a position with that label.', field: 'label' };
 
-async function checkPlace(sessionId: number, input: PositionInput): Promise<void> {
+async function checkPlace(scope: Scope, sessionId: number, input: PositionInput): Promise<void> {
 	const k = db();
 	const session = (await getSession(k, sessionId))!;
-	const placeErrors = checkPositionInRoom(input, (await getRoom(k, session.roomId))!);
+	const placeErrors = checkPositionInRoom(input, (await getRoom(k, session.roomId))!, scope.user.unitSystem);
 	if (Object.keys(placeErrors).length) throw new Problem(400, 'Check the coordinates.', { details: { errors: placeErrors } });
 }
 
 /** A new measurement position of the visit; given coordinates must lie inside the room. */
 export async function addPosition(scope: Scope, sessionId: number, input: PositionInput): Promise<number> {
-	await checkPlace(sessionId, input);
+	await checkPlace(scope, sessionId, input);
 	return transaction(async (trx) => {
 		const id = await mapDbErrors(createPosition(trx, sessionId, input), DUPLICATE_LABEL);
 		await audit(trx, scope, 'position.created', 'position', id);
@@ -73,7 +73,7 @@ const NO_SUCH_POSITION = 'This visit has no such position.';
 export async function editPosition(scope: Scope, sessionId: number, positionId: number, input: PositionInput): Promise<void> {
 	const before = (await listPositions(db(), sessionId)).find((p) => p.id === positionId);
 	if (!before) throw notFound(NO_SUCH_POSITION);
-	await checkPlace(sessionId, input);
+	await checkPlace(scope, sessionId, input);
 	await transaction(async (trx) => {
 		await mapDbErrors(updatePosition(trx, positionId, input), DUPLICATE_LABEL);
 		await audit(trx, scope, 'position.updated', 'position', positionId, before.label === input.label ? undefined : { from: before.label, to: input.label });

@@ -2,7 +2,7 @@ import { redirect } from '@sveltejs/kit';
 import { authorize } from '$lib/server/auth/access';
 import { formAction } from '$lib/server/forms';
 import * as projects from '$lib/server/projects/service';
-import { projectMemberSchema, roomSchema } from '$lib/schemas/projects';
+import { formUnitSystem, projectMemberSchema, roomSchemaFor } from '$lib/schemas/projects';
 import { roleAllows } from '$lib/roles';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -22,7 +22,7 @@ export const actions = {
 	createRoom: async ({ locals, params, request }) => {
 		const projectId = Number(params.projectId);
 		const scope = await authorize(locals, 'project:edit', { projectId });
-		return formAction(request, roomSchema, async (input) => {
+		return formAction(request, (form) => roomSchemaFor(formUnitSystem(form, scope.user.unitSystem)), async (input) => {
 			const id = await projects.createRoom(scope, projectId, input);
 			redirect(303, `/rooms/${id}`);
 		});

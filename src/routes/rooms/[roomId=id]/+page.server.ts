@@ -4,7 +4,7 @@ import { authorize } from '$lib/server/auth/access';
 import { formAction } from '$lib/server/forms';
 import * as projects from '$lib/server/projects/service';
 import * as reviews from '$lib/server/reviews/service';
-import { roomSchema, sessionSchema } from '$lib/schemas/projects';
+import { formUnitSystem, roomSchemaFor, sessionSchema } from '$lib/schemas/projects';
 import { comparisonSchema, problemBandSchema, problemBandStatusSchema } from '$lib/schemas/reviews';
 import { roleAllows } from '$lib/roles';
 import type { Actions, PageServerLoad } from './$types';
@@ -26,7 +26,7 @@ export const actions = {
 	update: async ({ locals, params, request }) => {
 		const roomId = Number(params.roomId);
 		const scope = await authorize(locals, 'project:edit', { roomId });
-		return formAction(request, roomSchema, async (input) => {
+		return formAction(request, (form) => roomSchemaFor(formUnitSystem(form, scope.user.unitSystem)), async (input) => {
 			await projects.updateRoom(scope, roomId, input);
 			return { updated: true };
 		});

@@ -1,16 +1,18 @@
 import { redirect } from '@sveltejs/kit';
 import { z } from 'zod';
-import { authorize } from '$lib/server/auth/access';
+import { authorize, type Scope } from '$lib/server/auth/access';
 import { formAction } from '$lib/server/forms';
 import { addPosition, editPosition, removePosition, visitPage } from '$lib/server/sessions/service';
 import { calibrationSummary } from '$lib/server/calibrations/service';
 import { visitPhotos } from '$lib/server/photos/service';
-import { positionSchema } from '$lib/schemas/projects';
+import { formUnitSystem, positionSchemaFor } from '$lib/schemas/projects';
 import type { Actions, PageServerLoad } from './$types';
 
 const positionId = z.coerce.number({ error: 'Say which position.' }).int().positive({ error: 'Say which position.' });
-const editPositionSchema = positionSchema.extend({ positionId });
 const removePositionSchema = z.object({ positionId });
+// Coordinates are typed in the unit system the form was shown in.
+const positionFormSchema = (scope: Scope) => (form: FormData) => positionSchemaFor(formUnitSystem(form, scope.user.unitSystem));
+const editPositionFormSchema = (scope: Scope) => (form: FormData) => positionSchemaFor(formUnitSystem(form, scope.user.unitSystem)).extend({ positionId });
 
 export const load = (async ({ locals, params }) => {
 	const sessionId = Number(params.sessionId);
@@ -23,7 +25,7 @@ export const actions = {
 	createPosition: async ({ locals, params, request }) => {
 		const sessionId = Number(params.sessionId);
 		const scope = await authorize(locals, 'project:edit', { sessionId });
-		return formAction(request, positionSchema, async (input) => {
+		return formAction(request, positionFormSchema(scope), async (input) => {
 			await addPosition(scope, sessionId, input);
 			redirect(303, `/sessions/${sessionId}`);
 		});
@@ -32,7 +34,7 @@ export const actions = {
 	updatePosition: async ({ locals, params, request }) => {
 		const sessionId = Number(params.sessionId);
 		const scope = await authorize(locals, 'project:edit', { sessionId });
-		return formAction(request, editPositionSchema, async ({ positionId, ...input }) => {
+		return formAction(request, editPositionFormSchema(scope), async ({ positionId, ...input }) => {
 			await editPosition(scope, sessionId, positionId, input);
 			return { positionUpdated: positionId };
 		});
