@@ -8,6 +8,7 @@ import type { Scope } from '../../src/lib/server/auth/access';
 import { synthesiseResponse, TREATED, UNTREATED } from './room-response';
 import { DEMO_PROJECTS } from './scenario';
 import { seedDemoCalibration } from './seed-calibration';
+import { seedDemoVisitRecords } from './seed-photos';
 
 export async function seedDemoCaptures(k: Knex, organizationId: number): Promise<number> {
 	const acoustician = await k('users').where({ email: 'acoustician@fenwick-hale.test' }).first('id', 'email', 'name');
@@ -52,6 +53,8 @@ export async function seedDemoCaptures(k: Knex, organizationId: number): Promise
 			await confirmUpload(scope, created.capture.id);
 			count++;
 		}
+		// Photos of the room and the main seat, and a note on that capture.
+		await seedDemoVisitRecords(k, scope, session.id, session.condition_label !== 'untreated');
 	}
 	return count;
 }

@@ -91,6 +91,7 @@ describe('visit records', () => {
 		await row.getByLabel('Note on decay-t0.5-48k.wav').fill('Door open, HVAC on');
 		await row.getByRole('button', { name: 'Save note' }).click();
 		await row.getByTestId('capture-note').getByText('Door open, HVAC on').waitFor();
+		if (SHOTS) await page.screenshot({ path: `${SHOTS}/visit-note-1280.png`, fullPage: true });
 
 		// At phone width the visit page, its photo grid and notes included, stays within the screen.
 		await page.setViewportSize(PHONE);
@@ -106,6 +107,7 @@ describe('visit records', () => {
 		await row.getByRole('link', { name: 'decay-t0.5-48k.wav' }).click();
 		await page.waitForURL(/\/captures\/\d+$/);
 		expect(await seen(page.getByTestId('capture-note').getByText('Door open, HVAC on'))).toBe(true);
+		if (SHOTS) await page.screenshot({ path: `${SHOTS}/capture-note-1280.png` });
 		await page.goBack();
 		await page.waitForLoadState('networkidle');
 
