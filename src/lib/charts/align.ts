@@ -21,9 +21,20 @@ function checkSeries(series: XYSeries, index: number): void {
 	});
 }
 
+const finiteOrNull = (y: number | null) => (y !== null && Number.isFinite(y) ? y : null);
+
+/** Whether every series has the same strictly ascending x values (the union is then that grid). */
+function onOneAscendingGrid(series: readonly XYSeries[]): boolean {
+	const grid = series[0].x;
+	for (let i = 1; i < grid.length; i++) if (!(grid[i] > grid[i - 1])) return false;
+	return series.every((s) => s.x === grid || (s.x.length === grid.length && s.x.every((v, i) => v === grid[i])));
+}
+
 /** Union of all x values in ascending order; each series keeps its values at its own x. */
 export function alignSeries(series: readonly XYSeries[]): AlignedSeries {
 	series.forEach(checkSeries);
+	// Responses of one analysis engine share their grid: no union to work out.
+	if (series.length > 0 && onOneAscendingGrid(series)) return { x: [...series[0].x], ys: series.map((s) => s.y.map(finiteOrNull)) };
 	const x = [...new Set(series.flatMap((s) => s.x))].sort((a, b) => a - b);
 	const position = new Map(x.map((value, i) => [value, i]));
 	const ys = series.map((s) => {

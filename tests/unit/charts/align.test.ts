@@ -15,6 +15,21 @@ describe('alignSeries', () => {
 		]);
 	});
 
+	it('keeps series that share one grid on it, as the union would, without sharing their arrays', () => {
+		const grid = [20, 40, 80, 160];
+		const series = [
+			{ x: grid, y: [1, Number.POSITIVE_INFINITY, 3, 4] },
+			{ x: [...grid], y: [5, 6, null, 8] }
+		];
+		const aligned = alignSeries(series);
+		expect(aligned).toEqual({ x: grid, ys: [[1, null, 3, 4], [5, 6, null, 8]] });
+		expect(aligned.x).not.toBe(grid);
+		expect(aligned.ys[1]).not.toBe(series[1].y);
+		// A grid out of order, or with a repeat, still goes through the union.
+		expect(alignSeries([{ x: [40, 20], y: [2, 1] }])).toEqual({ x: [20, 40], ys: [[1, 2]] });
+		expect(alignSeries([{ x: [20, 20, 40], y: [1, 2, 3] }])).toEqual({ x: [20, 40], ys: [[2, 3]] });
+	});
+
 	it('turns non-finite values into gaps', () => {
 		expect(alignSeries([{ x: [1, 2], y: [Number.NaN, 4] }]).ys).toEqual([[null, 4]]);
 	});
