@@ -5,10 +5,13 @@ import { analyseImpulseResponse } from '../../src/lib/analysis/analyse';
 import { exponentialNoiseDecay } from '../../src/lib/analysis/synthetic';
 import { getAnalysis, replaceAnalysis } from '../../src/lib/server/queries/analyses';
 import { getComparison } from '../../src/lib/server/queries/reviews';
-import { loadComparisonModel, loadSessionSummary, roomFacts, withoutRawLevels } from '../../src/lib/server/results/load';
+import { loadComparisonModel, loadSessionSummary, roomFacts } from '../../src/lib/server/results/load';
 import { positionFromAnalysis } from '../../src/lib/results/position';
 import { summariseSession } from '../../src/lib/results/session';
 import { compareSessions } from '../../src/lib/results/comparison';
+import { comparisonView, DEFAULT_SMOOTHING, visitBands, visitResponses, visitResultsView, type ComparisonView, type VisitResultsView } from '../../src/lib/results/drawn';
+import { packedTransport } from '../../src/lib/packed';
+import { SMOOTHINGS } from '../../src/lib/schemas/results';
 import type { SessionSummary } from '../../src/lib/results/types';
 import { testDb } from '../helpers/db';
 import { makeOrganization, makeProjectTree, makeUser, TEST_PASSWORD, type ProjectTree } from '../helpers/factories';
@@ -16,8 +19,9 @@ import { Client, signedInClient } from '../helpers/http';
 
 // The results pages cache what they work out from stored analyses. What they show must be what
 // the uncached path gives from the whole stored rows — also after a capture is analysed again or
-// a position renamed — and the visit page must send exactly those values.
+// a position renamed — and the pages and their on-demand routes must send exactly those values.
 let k: Knex;
+let organizationId: number;
 let tree: ProjectTree;
 let consultant: Client;
 let beforeId: number;
@@ -62,9 +66,17 @@ async function uncachedSummary(sessionId: number): Promise<SessionSummary> {
 	return summariseSession({ sessionId, conditionLabel: s.condition_label, measuredOn: (await loadSessionSummary(k, sessionId)).measuredOn }, positions);
 }
 
+/** A page's own data from its __data.json, decoded as the browser does (packed values included). */
+async function pageData(answer: Response): Promise<Record<string, unknown>> {
+	expect(answer.status).toBe(200);
+	const body = await answer.json();
+	return unflatten(body.nodes.at(-1).data, { Packed: packedTransport.decode }) as Record<string, unknown>;
+}
+
 beforeAll(async () => {
 	k = testDb();
 	const org = await makeOrganization(k);
+	organizationId = org;
 	tree = await makeProjectTree(k, org);
 	beforeId = await analysedVisit('untreated', 0.7, 300);
 	afterId = await analysedVisit('treated', 0.45, 400);
@@ -107,24 +119,94 @@ describe('cached results', () => {
 		expect(s).toEqual(await uncachedSummary(beforeId));
 	});
 
-	it('the visit page sends the values it draws: bands, averages and every smoothed curve as worked out without a cache', async () => {
+	it('the visit page sends what it draws, as worked out without a cache: the default smoothing and the octave tables', async () => {
 		const answer = await consultant.request('GET', `/sessions/${beforeId}/__data.json`);
 		expect(answer.status).toBe(200);
-		const body = await answer.json();
-		const node = body.nodes.at(-1);
-		const summary = unflatten(node.data).summary as SessionSummary;
+		const summary = (await pageData(answer)).summary as VisitResultsView;
 		const reference = await uncachedSummary(beforeId);
-		expect(summary).toEqual(withoutRawLevels(reference));
-		for (const [i, p] of summary.positions.entries()) {
-			for (const key of ['1', '3', '6', '12', '24'] as const) expect(p.response.smoothed[key]).toEqual(reference.positions[i].response.smoothed[key]);
-			expect(p.response.freqHz).toEqual(reference.positions[i].response.freqHz);
-			expect(p.bands).toEqual(reference.positions[i].bands);
-		}
-		expect(summary.averageResponse!.smoothed).toEqual(reference.averageResponse!.smoothed);
-		expect(summary.statistics).toEqual(reference.statistics);
+		const tag = (await consultant.get(`/api/sessions/${beforeId}/responses?smoothing=3`, { accept: 'application/json' })).headers.get('etag')!;
+		expect(summary.tag).toBe(tag);
+		expect(summary).toEqual(visitResultsView(reference, tag));
+		for (const [i, p] of summary.responses.positions.entries()) expect(p.db).toEqual(reference.positions[i].response.smoothed[DEFAULT_SMOOTHING]);
+		expect(summary.responses.average!.db).toEqual(reference.averageResponse!.smoothed[DEFAULT_SMOOTHING]);
+		expect(summary.octaves.statistics).toEqual(reference.statistics);
 		// One frequency grid, sent once.
-		expect(summary.positions[1].response.freqHz).toBe(summary.positions[0].response.freqHz);
-		expect(summary.averageResponse!.freqHz).toBe(summary.positions[0].response.freqHz);
+		expect(summary.responses.positions[1].freqHz).toBe(summary.responses.positions[0].freqHz);
+		expect(summary.responses.average!.freqHz).toBe(summary.responses.positions[0].freqHz);
+	});
+
+	it('every other smoothing and the one-third octaves of a visit are answered on demand, as worked out without a cache, with an entity tag', async () => {
+		const reference = await uncachedSummary(beforeId);
+		for (const smoothing of SMOOTHINGS) {
+			const r = await consultant.get(`/api/sessions/${beforeId}/responses?smoothing=${smoothing}`, { accept: 'application/json' });
+			expect(r.status).toBe(200);
+			expect(r.headers.get('cache-control')).toBe('private, no-cache');
+			const body = await r.json();
+			expect(body).toEqual(JSON.parse(JSON.stringify(visitResponses(reference, smoothing))));
+			body.positions.forEach((p: { db: number[] }, i: number) => expect(p.db).toEqual(reference.positions[i].response.smoothed[smoothing]));
+			const again = await consultant.get(`/api/sessions/${beforeId}/responses?smoothing=${smoothing}`, { accept: 'application/json', 'if-none-match': r.headers.get('etag')! });
+			expect(again.status).toBe(304);
+			expect(await again.text()).toBe('');
+		}
+		const thirds = await consultant.get(`/api/sessions/${beforeId}/bands?kind=third`, { accept: 'application/json' });
+		expect(thirds.status).toBe(200);
+		const bands = await thirds.json();
+		expect(bands).toEqual(JSON.parse(JSON.stringify(visitBands(reference, 'third'))));
+		expect(bands.statistics).toEqual(JSON.parse(JSON.stringify(reference.thirds!.statistics)));
+		expect(bands.positions[0].bands.map((b: { t30S: number }) => b.t30S)).toEqual(reference.positions[0].thirdBands!.map((b) => b.t30S));
+		// What the routes do not know is refused with the field that is wrong.
+		const wrong = await consultant.get(`/api/sessions/${beforeId}/responses?smoothing=5`, { accept: 'application/json' });
+		expect(wrong.status).toBe(422);
+		expect((await wrong.json()).errors.smoothing).toContain('smoothing=1, 3, 6, 12 or 24');
+		expect((await consultant.get(`/api/sessions/${beforeId}/bands?kind=sixth`, { accept: 'application/json' })).status).toBe(422);
+	});
+
+	it('the comparison and report pages send what they draw; the other smoothings and the thirds are answered on demand; a client sees them only once published', async () => {
+		const c = (await getComparison(k, comparisonId))!;
+		const model = compareSessions(await roomFacts(k, tree.roomId), await uncachedSummary(beforeId), await uncachedSummary(afterId));
+		const page = await pageData(await consultant.request('GET', `/comparisons/${comparisonId}/__data.json`));
+		const view = page.model as ComparisonView;
+		expect(view).toEqual(comparisonView(model, view.tag));
+		expect(view.responses.before!.db).toEqual(model.baseline.averageResponse!.smoothed[DEFAULT_SMOOTHING]);
+		for (const smoothing of SMOOTHINGS) {
+			const r = await consultant.get(`/api/comparisons/${comparisonId}/responses?smoothing=${smoothing}`, { accept: 'application/json' });
+			expect(r.headers.get('etag')).toBe(view.tag);
+			const body = await r.json();
+			expect(body.before.db).toEqual(model.baseline.averageResponse!.smoothed[smoothing]);
+			expect(body.after.db).toEqual(model.treated.averageResponse!.smoothed[smoothing]);
+		}
+		const thirds = await (await consultant.get(`/api/comparisons/${comparisonId}/bands?kind=third`, { accept: 'application/json' })).json();
+		expect(thirds).toEqual(JSON.parse(JSON.stringify({ bandKind: 'third', ...model.thirds })));
+		expect(await loadComparisonModel(k, c)).toEqual(model);
+
+		const clientUser = await makeUser(k, organizationId, 'client');
+		await k('project_members').insert({ project_id: tree.projectId, user_id: clientUser.id });
+		const client = await signedInClient(clientUser.email, TEST_PASSWORD);
+		const paths = [`/api/comparisons/${comparisonId}/responses?smoothing=1`, `/api/comparisons/${comparisonId}/bands?kind=third`];
+		for (const p of paths) expect((await client.get(p, { accept: 'application/json' })).status, p).toBe(404);
+		// The visit's own routes are the practice's: never a client's.
+		expect((await client.get(`/api/sessions/${beforeId}/responses?smoothing=1`, { accept: 'application/json' })).status).toBe(403);
+		await k('comparisons').where({ id: comparisonId }).update({ published_at: new Date() });
+		for (const p of paths) expect((await client.get(p, { accept: 'application/json' })).status, p).toBe(200);
+		const report = await pageData(await client.request('GET', `/reports/${comparisonId}/__data.json`));
+		expect((report.model as ComparisonView).tag).toBe(view.tag);
+		await k('comparisons').where({ id: comparisonId }).update({ published_at: null });
+	});
+
+	it('analysing a capture again gives the results a new entity tag, so a browser holding the old ones is sent the new', async () => {
+		const path = `/api/sessions/${afterId}/responses?smoothing=12`;
+		const first = await consultant.get(path, { accept: 'application/json' });
+		const tag = first.headers.get('etag')!;
+		expect((await consultant.get(path, { accept: 'application/json', 'if-none-match': tag })).status).toBe(304);
+		const comparisonTag = (await consultant.get(`/api/comparisons/${comparisonId}/responses?smoothing=12`, { accept: 'application/json' })).headers.get('etag')!;
+		await replaceAnalysis(k, captureIds[3], analysis(0.3, 700));
+		const changed = await consultant.get(path, { accept: 'application/json', 'if-none-match': tag });
+		expect(changed.status).toBe(200);
+		expect(changed.headers.get('etag')).not.toBe(tag);
+		expect((await changed.json()).positions[1].db).toEqual((await uncachedSummary(afterId)).positions[1].response.smoothed['12']);
+		const comparison = await consultant.get(`/api/comparisons/${comparisonId}/responses?smoothing=12`, { accept: 'application/json', 'if-none-match': comparisonTag });
+		expect(comparison.status).toBe(200);
+		expect(comparison.headers.get('etag')).not.toBe(comparisonTag);
 	});
 
 	it('the analysis JSON carries an entity tag: the same result is answered 304 without a body, a new analysis 200 with a new tag', async () => {

@@ -2,11 +2,11 @@
 // numbers and quality warnings. Object keys stay on the server.
 import type { Knex } from 'knex';
 import type { CaptureView } from '../../types/captures';
-import { analysisSummaries, listCaptures, type CaptureRow } from '../queries/captures';
+import { listCapturesWithSummaries, type AnalysisSummary, type CaptureRow } from '../queries/captures';
 
 export type { CaptureView };
 
-export function toView(c: CaptureRow, summary?: { engineVersion: string; warnings: unknown[]; metrics: Record<string, unknown> }): CaptureView {
+export function toView(c: CaptureRow, summary?: AnalysisSummary): CaptureView {
 	const broadband = summary?.metrics.broadband as Record<string, number | null> | undefined;
 	return {
 		id: c.id,
@@ -38,7 +38,5 @@ export function toView(c: CaptureRow, summary?: { engineVersion: string; warning
 }
 
 export async function sessionCaptureViews(k: Knex, sessionId: number): Promise<CaptureView[]> {
-	const rows = await listCaptures(k, sessionId);
-	const summaries = await analysisSummaries(k, rows.map((r) => r.id));
-	return rows.map((r) => toView(r, summaries.get(r.id)));
+	return (await listCapturesWithSummaries(k, sessionId)).map((r) => toView(r.capture, r.summary));
 }

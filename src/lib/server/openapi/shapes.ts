@@ -3,12 +3,14 @@
 // their shapes are written here — the ones with a TypeScript type are checked against it below,
 // and the integration test parses real answers with them.
 import { z } from 'zod';
+import type { ZodOpenApiResponseObject } from 'zod-openapi';
 import { CAPTURE_STATUSES } from '../../captures/status';
 import { CAPTURE_KINDS } from '../../schemas/captures';
 import { CAPTURE_BANDS_SCHEMA, COMPARISON_SCHEMA, SESSION_AVERAGE_SCHEMA } from '../../results/exports';
 import { CUT_LIST_SCHEMA } from '../../plans/exports';
 import type { CaptureView } from '../../types/captures';
 import type { ProblemBandView } from '../../results/types';
+import type { ComparisonResponses, VisitResponses } from '../../results/drawn';
 
 /** Every refusal: `message` for people, `code` for scripts, `errors` per field. */
 export const problemSchema = z
@@ -213,9 +215,62 @@ export const cutListExportSchema = z.object({
 
 export const binary = (description: string) => z.string().meta({ format: 'binary', description });
 
+/** How the results answers with an entity tag behave. */
+export const TAGGED =
+	'The answer carries an entity tag (ETag, Cache-Control: private, no-cache): send it back as If-None-Match and unchanged results are answered 304 without a body. The tag changes when a capture is analysed again, a position is renamed or the room changes.';
+export const ifNoneMatch = z.object({ 'if-none-match': z.string().optional().meta({ description: 'The ETag of an answer already held.' }) });
+
+/** The answers of a route with an entity tag: 200 with the tag, or 304. */
+export function taggedResponses(description: string, schema: z.ZodType): Record<number, ZodOpenApiResponseObject> {
+	return {
+		200: { description, headers: z.object({ etag: z.string().meta({ description: 'Entity tag of these results.' }) }), content: { 'application/json': { schema } } },
+		304: { description: 'Unchanged since the entity tag sent in If-None-Match.' }
+	};
+}
+
+const smoothingSchema = z.enum(['1', '3', '6', '12', '24']).meta({ description: '1/N-octave smoothing.' });
+const curveSchema = z
+	.object({ freqHz: z.array(z.number()), db: z.array(z.number()) })
+	.meta({ id: 'SmoothedCurve', description: 'Levels in dB (relative) at 48 points per octave.' });
+
+export const visitResponsesSchema = z.object({
+	smoothing: smoothingSchema,
+	positions: z.array(curveSchema.extend({ captureId: z.number().int(), positionLabel: z.string() })).meta({ description: 'Each position\'s latest analysed capture.' }),
+	average: curveSchema.nullable().meta({ description: 'The power average over the positions.' })
+});
+
+export const visitBandsSchema = z.object({
+	bandKind: z.enum(['octave', 'third']),
+	positions: z.array(
+		z.object({
+			captureId: z.number().int(),
+			positionLabel: z.string(),
+			bands: z.array(z.object({ centerHz: z.number(), t30S: nullableNumber, t20S: nullableNumber, edtS: nullableNumber, c80Db: nullableNumber, c50Db: nullableNumber }))
+		})
+	),
+	average: z.array(z.object({ centerHz: z.number(), values: averagesSchema })),
+	statistics: z.record(z.string(), z.unknown()).meta({ description: 'Per band the spread of each metric with its 95 % interval, σ of T20/T30 (ISO 3382-2), T_mid and the grade.' })
+});
+
+export const comparisonResponsesSchema = z.object({
+	smoothing: smoothingSchema,
+	before: curveSchema.nullable().meta({ description: 'The baseline visit\'s average response.' }),
+	after: curveSchema.nullable().meta({ description: 'The treated visit\'s average response.' })
+});
+
+export const comparisonBandsSchema = z.object({
+	bandKind: z.enum(['octave', 'third']),
+	differences: z.array(z.object({ centerHz: z.number(), metrics: z.record(z.string(), z.unknown()) })).meta({ description: 'Per band and metric: before, after, difference and relative change.' }),
+	judgements: z.array(z.object({ centerHz: z.number(), metrics: z.record(z.string(), z.unknown()) })).meta({ description: 'Per band and metric: the difference judged against the spread and the JND.' })
+});
+
 // The written shapes follow the types the services build (a changed type fails the type check here).
 type Same<A, B> = [A] extends [B] ? ([B] extends [A] ? true : false) : false;
 const sameCapture: Same<z.output<typeof captureSchema>, CaptureView> = true;
 const sameProblemBand: Same<z.output<typeof problemBandSchema>, ProblemBandView> = true;
 void sameCapture;
 void sameProblemBand;
+const sameVisitResponses: Same<z.output<typeof visitResponsesSchema>, VisitResponses> = true;
+const sameComparisonResponses: Same<z.output<typeof comparisonResponsesSchema>, ComparisonResponses> = true;
+void sameVisitResponses;
+void sameComparisonResponses;

@@ -48,16 +48,36 @@ function visitOf(summary: SessionSummary): MeasuredVisit {
 	};
 }
 
+/** Everything a plan is worked out from: with the same inputs, workOutPlan gives the same view. */
+export interface PlanInputs {
+	room: RoomRow;
+	plan: StoredPlan;
+	customMaterials: CustomMaterialRow[];
+	before: MeasuredVisit | null;
+	after: MeasuredVisit | null;
+}
+
 /**
- * Everything a plan page shows. `summaries` passes visits already loaded (the report has both
- * of its comparison's), so they are not read twice.
+ * What a room's plan is worked out from. `summaries` passes visits already loaded (the report has
+ * both of its comparison's), so they are not read twice; so does a room row already read.
  */
-export async function loadPlanView(k: Knex, roomId: number, organizationId: number, summaries: readonly SessionSummary[] = []): Promise<PlanView> {
-	const [room, plan, customMaterials] = await Promise.all([getRoom(k, roomId), loadStoredPlan(k, roomId), listCustomMaterials(k, organizationId)]);
-	if (!room) throw new Error(`room ${roomId} does not exist`);
+export async function readPlanInputs(k: Knex, room: number | RoomRow, organizationId: number, summaries: readonly SessionSummary[] = []): Promise<PlanInputs> {
+	const roomId = typeof room === 'number' ? room : room.id;
+	const [roomRow, plan, customMaterials] = await Promise.all([typeof room === 'number' ? getRoom(k, roomId) : room, loadStoredPlan(k, roomId), listCustomMaterials(k, organizationId)]);
+	if (!roomRow) throw new Error(`room ${roomId} does not exist`);
 	const summaryOf = async (id: number | null) =>
 		id === null ? null : visitOf(summaries.find((s) => s.sessionId === id) ?? (await loadSessionSummary(k, id)));
 	const [before, after] = await Promise.all([summaryOf(plan.settings.baselineSessionId), summaryOf(plan.settings.afterSessionId)]);
+	return { room: roomRow, plan, customMaterials, before, after };
+}
+
+/** Everything a plan page shows. */
+export async function loadPlanView(k: Knex, roomId: number, organizationId: number, summaries: readonly SessionSummary[] = []): Promise<PlanView> {
+	return workOutPlan(await readPlanInputs(k, roomId, organizationId, summaries));
+}
+
+/** The plan worked through: prediction, builds, cut list and cost. */
+export function workOutPlan({ room, plan, customMaterials, before, after }: PlanInputs): PlanView {
 	const evaluation = evaluatePlan({
 		room: { lengthM: room.lengthM, widthM: room.widthM, heightM: room.heightM },
 		plan,

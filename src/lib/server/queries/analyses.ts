@@ -72,14 +72,22 @@ export interface AnalysedCaptureRow {
 
 /** The analysed captures of a visit without their stored JSON, newest first within each position label. */
 export async function analysedCaptureRowsOfSession(k: Knex, sessionId: number): Promise<AnalysedCaptureRow[]> {
+	return analysedCaptureRowsOfSessions(k, [sessionId]);
+}
+
+/** The same for several visits in one query, each row with its visit. */
+export async function analysedCaptureRowsOfSessions(k: Knex, sessionIds: number[]): Promise<(AnalysedCaptureRow & { sessionId: number })[]> {
+	if (sessionIds.length === 0) return [];
 	const rows = await k('captures as c')
 		.join('positions as po', 'po.id', 'c.position_id')
 		.join('analyses as a', 'a.capture_id', 'c.id')
-		.where({ 'c.session_id': sessionId, 'c.status': 'analysed' })
+		.whereIn('c.session_id', sessionIds)
+		.where('c.status', 'analysed')
 		.orderBy('po.label')
 		.orderBy('c.id', 'desc')
-		.select('c.id', 'po.label', 'po.source_label', 'po.mic_label', 'a.id as analysis_id', 'a.engine_version', 'a.created_at');
+		.select('c.id', 'c.session_id', 'po.label', 'po.source_label', 'po.mic_label', 'a.id as analysis_id', 'a.engine_version', 'a.created_at');
 	return rows.map((r) => ({
+		sessionId: r.session_id,
 		captureId: r.id,
 		positionLabel: r.label,
 		sourceLabel: r.source_label ?? null,
@@ -108,6 +116,13 @@ export async function responseInputsOfAnalyses(
 			{ metrics: readJson<StoredMetrics>(r.metrics), curves: { frequencyResponse: readJson(r.response), frequencyResponseSmoothed: readJson(r.smoothed) } }
 		])
 	);
+}
+
+/** The quality warnings of these captures' stored results (their metrics stay in the database). */
+export async function analysisWarnings(k: Knex, captureIds: number[]): Promise<Map<number, AnalysisWarning[]>> {
+	if (captureIds.length === 0) return new Map();
+	const rows = await k('analyses').whereIn('capture_id', captureIds).select('capture_id', 'warnings');
+	return new Map(rows.map((r) => [r.capture_id as number, readJson<AnalysisWarning[]>(r.warnings)]));
 }
 
 /** Names the stored result of a capture: a re-analysis replaces the row, so the name changes with it. */

@@ -48,6 +48,38 @@ export async function listCaptures(k: Knex, sessionId: number): Promise<CaptureR
 	return base(k).where('c.session_id', sessionId).orderBy('po.label').orderBy('c.id').select(columns);
 }
 
+export type AnalysisSummary = { engineVersion: string; warnings: unknown[]; metrics: { broadband?: Record<string, unknown>; peakToNoiseDb?: number | null } };
+
+// What analysisSummaries reads of a capture's analysis.
+const summaryColumns = (k: Knex) => [
+	'a.engine_version',
+	'a.warnings',
+	k.raw("JSON_EXTRACT(a.metrics, '$.broadband') as broadband"),
+	k.raw("JSON_EXTRACT(a.metrics, '$.peakToNoiseDb') as peak_to_noise_db")
+];
+
+function summaryOf(r: { engine_version: string; warnings: unknown; broadband: unknown; peak_to_noise_db: unknown }): AnalysisSummary {
+	return {
+		engineVersion: r.engine_version,
+		warnings: readJson<unknown[]>(r.warnings),
+		metrics: { broadband: r.broadband === null ? undefined : readJson(r.broadband), peakToNoiseDb: r.peak_to_noise_db === null ? undefined : readJson(r.peak_to_noise_db) }
+	};
+}
+
+/** A visit's captures with their analysis summaries (as analysisSummaries reads them), in one query. */
+export async function listCapturesWithSummaries(k: Knex, sessionId: number): Promise<{ capture: CaptureRow; summary: AnalysisSummary | undefined }[]> {
+	const rows = await base(k)
+		.leftJoin('analyses as a', 'a.capture_id', 'c.id')
+		.where('c.session_id', sessionId)
+		.orderBy('po.label')
+		.orderBy('c.id')
+		.select(columns, 'a.id as analysis_id', ...summaryColumns(k));
+	return rows.map(({ analysis_id, engine_version, warnings, broadband, peak_to_noise_db, ...capture }) => ({
+		capture: capture as CaptureRow,
+		summary: analysis_id === null ? undefined : summaryOf({ engine_version, warnings, broadband, peak_to_noise_db })
+	}));
+}
+
 export async function getCapture(k: Knex, id: number): Promise<CaptureRow | undefined> {
 	return base(k).where('c.id', id).first(columns);
 }
@@ -88,11 +120,16 @@ export async function lockSessionForCaptures(trx: Knex.Transaction, sessionId: n
 	return Boolean(await trx('sessions').where({ id: sessionId }).forUpdate().first('id'));
 }
 
-/** Warnings and headline numbers of each capture's analysis, for lists. */
-export async function analysisSummaries(k: Knex, captureIds: number[]): Promise<Map<number, { engineVersion: string; warnings: unknown[]; metrics: Record<string, unknown> }>> {
+/**
+ * Warnings and headline numbers of each capture's analysis, for lists: of the metrics only the
+ * broadband values and the peak-to-noise ratio are read (the bands stay in the database).
+ */
+export async function analysisSummaries(k: Knex, captureIds: number[]): Promise<Map<number, AnalysisSummary>> {
 	if (captureIds.length === 0) return new Map();
-	const rows = await k('analyses').whereIn('capture_id', captureIds).select('capture_id', 'engine_version', 'warnings', 'metrics');
-	return new Map(rows.map((r) => [r.capture_id, { engineVersion: r.engine_version, warnings: readJson<unknown[]>(r.warnings), metrics: readJson<Record<string, unknown>>(r.metrics) }]));
+	const rows = await k('analyses as a')
+		.whereIn('a.capture_id', captureIds)
+		.select('a.capture_id', ...summaryColumns(k));
+	return new Map(rows.map((r) => [r.capture_id as number, summaryOf(r)]));
 }
 
 export interface NewCapture {

@@ -1,5 +1,7 @@
 import type { Knex } from 'knex';
 import type { ProblemBandView } from '../../results/types';
+import type { ProjectRow } from '../../types/projects';
+import { roomColumns, sessionCount, type RoomRow } from './rooms';
 
 export interface ComparisonRow {
 	id: number;
@@ -36,6 +38,33 @@ export async function listComparisons(k: Knex, roomId: number, onlyPublished = f
 export async function getComparison(k: Knex, id: number): Promise<ComparisonRow | undefined> {
 	const r = await k('comparisons').where({ id }).first(comparisonColumns);
 	return r ? shapeComparison(r) : undefined;
+}
+
+const prefixed = (prefix: string, columns: Record<string, string>, table = '') =>
+	Object.fromEntries(Object.entries(columns).map(([key, column]) => [`${prefix}${key}`, `${table}${column}`]));
+const unprefixed = (prefix: string, r: Record<string, unknown>) =>
+	Object.fromEntries(Object.entries(r).filter(([key]) => key.startsWith(prefix)).map(([key, v]) => [key.slice(prefix.length), v]));
+
+/** A comparison with its room and project, as its pages head themselves, in one query. */
+export async function getComparisonHeader(
+	k: Knex,
+	id: number
+): Promise<{ comparison: ComparisonRow; room: RoomRow; project: Pick<ProjectRow, 'id' | 'organizationId' | 'organizationName' | 'name' | 'clientName'> } | undefined> {
+	const r = await k('comparisons as cm')
+		.join('rooms as r', 'r.id', 'cm.room_id')
+		.join('projects as p', 'p.id', 'r.project_id')
+		.join('organizations as o', 'o.id', 'p.organization_id')
+		.where('cm.id', id)
+		.first(prefixed('cm_', comparisonColumns, 'cm.'))
+		.select(prefixed('r_', roomColumns))
+		.select(sessionCount(k))
+		.select({ p_id: 'p.id', p_organizationId: 'p.organization_id', p_organizationName: 'o.name', p_name: 'p.name', p_clientName: 'p.client_name' });
+	if (!r) return undefined;
+	return {
+		comparison: shapeComparison(unprefixed('cm_', r)),
+		room: { ...(unprefixed('r_', r) as unknown as RoomRow), sessionCount: Number(r.sessionCount) },
+		project: unprefixed('p_', r) as unknown as Pick<ProjectRow, 'id' | 'organizationId' | 'organizationName' | 'name' | 'clientName'>
+	};
 }
 
 export async function createComparison(k: Knex, c: { roomId: number; baselineSessionId: number; treatedSessionId: number; title: string; createdBy: number }): Promise<number> {

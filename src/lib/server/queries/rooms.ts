@@ -3,7 +3,8 @@ import type { RoomRow } from '../../types/rooms';
 
 export type { RoomRow };
 
-const roomColumns = {
+/** The columns of a RoomRow, from `rooms as r` (with sessionCount). */
+export const roomColumns = {
 	id: 'r.id',
 	projectId: 'r.project_id',
 	name: 'r.name',
@@ -16,7 +17,7 @@ const roomColumns = {
 	updatedAt: 'r.updated_at'
 };
 
-const sessionCount = (k: Knex) => k.raw('(SELECT COUNT(*) FROM sessions s WHERE s.room_id = r.id) AS sessionCount');
+export const sessionCount = (k: Knex) => k.raw('(SELECT COUNT(*) FROM sessions s WHERE s.room_id = r.id) AS sessionCount');
 
 export async function listRooms(k: Knex, projectId: number): Promise<RoomRow[]> {
 	const rows = await k('rooms as r').where('r.project_id', projectId).select(roomColumns).select(sessionCount(k)).orderBy('r.name');

@@ -51,6 +51,35 @@ export async function getSession(k: Knex, id: number): Promise<SessionRow | unde
 	return r ? shape(r) : undefined;
 }
 
+/** A visit with its room and project, as the visit page heads itself, in one query. */
+export async function getVisitHeader(
+	k: Knex,
+	id: number
+): Promise<{ session: SessionRow; room: { id: number; projectId: number; name: string; lengthM: number; widthM: number; heightM: number }; project: { id: number; name: string } } | undefined> {
+	const r = await k('sessions as s')
+		.leftJoin('users as u', 'u.id', 's.acoustician_id')
+		.join('rooms as r', 'r.id', 's.room_id')
+		.join('projects as p', 'p.id', 'r.project_id')
+		.where('s.id', id)
+		.first(columns)
+		.select(counts(k))
+		.select({ roomProjectId: 'r.project_id', roomName: 'r.name', roomLengthM: 'r.length_m', roomWidthM: 'r.width_m', roomHeightM: 'r.height_m', projectName: 'p.name' });
+	if (!r) return undefined;
+	const { roomProjectId, roomName, roomLengthM, roomWidthM, roomHeightM, projectName, ...session } = r;
+	return {
+		session: shape(session),
+		room: { id: r.roomId, projectId: roomProjectId, name: roomName, lengthM: roomLengthM, widthM: roomWidthM, heightM: roomHeightM },
+		project: { id: roomProjectId, name: projectName }
+	};
+}
+
+/** The condition and date of these visits, for their results. */
+export async function sessionMetas(k: Knex, ids: number[]): Promise<{ sessionId: number; conditionLabel: string; measuredOn: string }[]> {
+	if (ids.length === 0) return [];
+	const rows = await k('sessions').whereIn('id', ids).select('id', 'condition_label', 'measured_on');
+	return rows.map((r) => ({ sessionId: r.id, conditionLabel: r.condition_label, measuredOn: toIsoDate(r.measured_on) }));
+}
+
 export async function createSession(
 	k: Knex,
 	roomId: number,

@@ -1,10 +1,10 @@
 // The PDF report of a comparison, made from what its report page shows.
 import type { Scope } from '../auth/access';
-import { loadComparisonPage } from '../results/comparison-page';
+import { loadComparisonDocument } from '../results/comparison-page';
 import type { ReportDocument } from './pdf';
 
 export async function loadReportDocument(scope: Scope, comparisonId: number): Promise<{ document: ReportDocument; fileName: string }> {
-	const page = await loadComparisonPage(scope, comparisonId, { withPlan: true });
+	const page = await loadComparisonDocument(scope, comparisonId, { withPlan: true });
 	return {
 		document: {
 			practiceName: page.practiceName,

@@ -1,66 +1,61 @@
-// Everything a comparison or report page shows, loaded once for both.
+// Everything a comparison or report page shows, loaded once for both; the whole comparison for
+// the PDF, the exports and the comparison JSON; and what those pages fetch when asked.
 import { error } from '@sveltejs/kit';
 import type { Knex } from 'knex';
 import { db } from '../db';
-import { getComparison, listProblemBands } from '../queries/reviews';
-import { getOrganization } from '../queries/organizations';
+import { getComparisonHeader, listProblemBands } from '../queries/reviews';
 import { hasSharedPlan } from '../queries/plans';
-import { getProject } from '../queries/projects';
-import { getRoom } from '../queries/rooms';
-import { analysisSummaries } from '../queries/captures';
-import { loadComparisonModel, withoutRawLevels } from './load';
+import type { RoomRow } from '../queries/rooms';
+import { analysisWarnings } from '../queries/analyses';
+import { comparisonViewOf, loadComparisonResults } from './load';
+import { Lru } from './cache';
 import type { Scope } from '../auth/access';
-import type { ComparisonModel, SessionSummary } from '../../results/types';
+import type { ComparisonModel } from '../../results/types';
 import { roleAllows } from '../../roles';
-import { loadPlanView } from '../plans/load';
+import { readPlanInputs, workOutPlan } from '../plans/load';
 import { planReport, type PlanReport } from '../../plans/report';
 import { unitOfSystem } from '../../schemas/treatment';
+import { notFound } from '../problem';
+import { comparisonBands, comparisonResponses, type ComparisonBands, type ComparisonResponses } from '../../results/drawn';
+import type { BandKind } from '../../analysis/bands';
+import type { SmoothingKey } from '../../analysis/types';
 
-/**
- * Pages draw the averaged responses with every smoothing, and a matched position's own response
- * only at 1/6 octave (to overlay chosen positions), so the rest of each position's curves is left
- * out of what is sent to the browser (with 2 × 12 positions they are most of the payload), and so
- * are the averages' unsmoothed levels.
- */
-function withoutPositionCurves(model: ComparisonModel): ComparisonModel {
-	const matched = new Set(model.matchedPositions);
-	const none = { freqHz: [], db: [], smoothed: { '1': [], '3': [], '6': [], '12': [], '24': [] } };
-	const slim = (whole: SessionSummary): SessionSummary => {
-		const s = withoutRawLevels(whole);
-		return {
-			...s,
-			positions: s.positions.map((p) => ({
-				...p,
-				response: matched.has(p.positionLabel) ? { freqHz: p.response.freqHz, db: [], smoothed: { ...none.smoothed, '6': p.response.smoothed['6'] } } : none
-			}))
-		};
-	};
-	return { ...model, baseline: slim(model.baseline), treated: slim(model.treated) };
-}
+// The report's plan, kept by everything it is worked out from (rows as read, measured times, unit):
+// working a plan through takes longer than reading it, and a report is read far more often than
+// its plan changes.
+const planReports = new Lru<PlanReport>(32);
 
 /** The room's plan for the report, when the consultant chose to show it and it has items. */
-async function reportPlanOf(k: Knex, scope: Scope, roomId: number, organizationId: number, model: ComparisonModel): Promise<PlanReport | null> {
+async function reportPlanOf(k: Knex, scope: Scope, room: RoomRow, organizationId: number, model: ComparisonModel): Promise<PlanReport | null> {
 	// Most rooms have no shared plan: ask before working one through.
-	if (!(await hasSharedPlan(k, roomId))) return null;
-	const view = await loadPlanView(k, roomId, organizationId, [model.baseline, model.treated]);
-	return planReport(view.plan.items, view.evaluation, view.cost, view.plan.settings.currency, unitOfSystem(scope.user.unitSystem));
+	if (!(await hasSharedPlan(k, room.id))) return null;
+	const inputs = await readPlanInputs(k, room, organizationId, [model.baseline, model.treated]);
+	const unit = unitOfSystem(scope.user.unitSystem);
+	return planReports.through(JSON.stringify([inputs, unit]), () => {
+		const view = workOutPlan(inputs);
+		return planReport(view.plan.items, view.evaluation, view.cost, view.plan.settings.currency, unit);
+	});
 }
 
-export async function loadComparisonPage(scope: Scope, comparisonId: number, options: { positionCurves?: boolean; withPlan?: boolean } = {}) {
-	const k = db();
-	const comparison = (await getComparison(k, comparisonId))!;
+/** The comparison row, refused to a client while it is a draft (a client never learns that a draft exists). */
+async function reachableComparison(k: Knex, scope: Scope, comparisonId: number) {
+	const { comparison, room, project } = (await getComparisonHeader(k, comparisonId))!;
 	const internal = roleAllows(scope.role, 'project:internal');
-	// A client sees a comparison only once it is published, and never learns that a draft exists.
 	if (!internal && !comparison.publishedAt) error(404, 'Not found.');
-	const room = (await getRoom(k, comparison.roomId))!;
-	const project = (await getProject(k, room.projectId))!;
-	const organization = (await getOrganization(k, project.organizationId))!;
-	const model = await loadComparisonModel(k, comparison);
+	return { comparison, room, project, internal };
+}
+
+/** The whole comparison with everything its pages show: for the PDF, the exports and the comparison JSON. */
+export async function loadComparisonDocument(scope: Scope, comparisonId: number, options: { withPlan?: boolean } = {}) {
+	const k = db();
+	const { comparison, room, project, internal } = await reachableComparison(k, scope, comparisonId);
+	const [{ model, tag }, problemBands] = await Promise.all([loadComparisonResults(k, comparison, room), listProblemBands(k, room.id)]);
+	const plan = options.withPlan ? await reportPlanOf(k, scope, room, project.organizationId, model) : null;
 	const showQuality = internal || comparison.shareQualityNotes;
 	let qualityNotes: { positionLabel: string; condition: string; messages: string[] }[] = [];
 	if (showQuality) {
 		const ids = [...model.baseline.positions, ...model.treated.positions].map((p) => p.captureId);
-		const summaries = await analysisSummaries(k, ids);
+		const warnings = await analysisWarnings(k, ids);
 		qualityNotes = [
 			...model.baseline.positions.map((p) => ({ p, condition: model.baseline.conditionLabel })),
 			...model.treated.positions.map((p) => ({ p, condition: model.treated.conditionLabel }))
@@ -68,7 +63,7 @@ export async function loadComparisonPage(scope: Scope, comparisonId: number, opt
 			.map(({ p, condition }) => ({
 				positionLabel: p.positionLabel,
 				condition,
-				messages: ((summaries.get(p.captureId)?.warnings ?? []) as { message: string }[]).map((w) => w.message)
+				messages: ((warnings.get(p.captureId) ?? []) as { message: string }[]).map((w) => w.message)
 			}))
 			.filter((q) => q.messages.length > 0);
 	}
@@ -76,10 +71,11 @@ export async function loadComparisonPage(scope: Scope, comparisonId: number, opt
 		comparison: { ...comparison, advice: comparison.advice ?? '' },
 		room: { id: room.id, name: room.name, lengthM: room.lengthM, widthM: room.widthM, heightM: room.heightM, volumeM3: room.volumeM3, roomUse: room.roomUse },
 		project: { id: project.id, name: project.name, clientName: project.clientName },
-		practiceName: organization.name,
-		model: options.positionCurves ? model : withoutPositionCurves(model),
-		problemBands: await listProblemBands(k, room.id),
-		plan: options.withPlan ? await reportPlanOf(k, scope, room.id, project.organizationId, model) : null,
+		practiceName: project.organizationName,
+		model,
+		tag,
+		problemBands,
+		plan,
 		qualityNotes,
 		can: {
 			review: roleAllows(scope.role, 'review:write'),
@@ -87,4 +83,32 @@ export async function loadComparisonPage(scope: Scope, comparisonId: number, opt
 			internal
 		}
 	};
+}
+
+/**
+ * The comparison and report pages' data: what they draw of the comparison (results/drawn.ts) —
+ * the averaged responses at the default smoothing, the octave tables, each matched position's own
+ * response — the rest fetched when asked for through comparisonResponsesOf and comparisonBandsOf.
+ */
+export async function loadComparisonPage(scope: Scope, comparisonId: number, options: { withPlan?: boolean } = {}) {
+	const { model, tag, ...page } = await loadComparisonDocument(scope, comparisonId, options);
+	return { ...page, model: comparisonViewOf(model, tag) };
+}
+
+/** The comparison's averaged responses at one smoothing, with the tag of the results they come from. */
+export async function comparisonResponsesOf(scope: Scope, comparisonId: number, smoothing: SmoothingKey): Promise<{ tag: string; answer: () => ComparisonResponses }> {
+	const k = db();
+	const { comparison, room } = await reachableComparison(k, scope, comparisonId);
+	const { model, tag } = await loadComparisonResults(k, comparison, room);
+	return { tag, answer: () => comparisonResponses(model, smoothing) };
+}
+
+/** The comparison's band-by-band tables of one kind, with the tag of the results they come from. */
+export async function comparisonBandsOf(scope: Scope, comparisonId: number, bandKind: BandKind): Promise<{ tag: string; answer: () => ComparisonBands }> {
+	const k = db();
+	const { comparison, room } = await reachableComparison(k, scope, comparisonId);
+	const { model, tag } = await loadComparisonResults(k, comparison, room);
+	const bands = comparisonBands(model, bandKind);
+	if (!bands) throw notFound('This comparison has no one-third-octave bands: a visit was analysed without them.');
+	return { tag, answer: () => bands };
 }

@@ -6,12 +6,15 @@ import type { Knex } from 'knex';
 import { positionFromAnalysis, type PositionCurvesInput, type PositionMetricsInput } from '../../results/position';
 import { summariseSession } from '../../results/session';
 import { compareSessions } from '../../results/comparison';
-import type { ComparisonModel, PositionResult, RoomFacts, SessionSummary } from '../../results/types';
-import { analysedCaptureRowsOfSession, responseInputsOfAnalyses, type AnalysedCaptureRow } from '../queries/analyses';
-import { getRoom } from '../queries/rooms';
-import { getSession } from '../queries/sessions';
+import type { ComparisonModel, PositionResult, RoomFacts, SessionMeta, SessionSummary } from '../../results/types';
+import { comparisonView, visitResultsView, type ComparisonView, type VisitResultsView } from '../../results/drawn';
+import { createHash, randomUUID } from 'node:crypto';
+import { pack } from '../../packed';
+import { analysedCaptureRowsOfSession, analysedCaptureRowsOfSessions, responseInputsOfAnalyses, type AnalysedCaptureRow } from '../queries/analyses';
+import { getRoom, type RoomRow } from '../queries/rooms';
+import { sessionMetas } from '../queries/sessions';
 import type { ComparisonRow } from '../queries/reviews';
-import { Lru } from './cache';
+import { deepFreeze, Lru } from './cache';
 
 type ResponseInputs = { metrics: PositionMetricsInput; curves: PositionCurvesInput };
 
@@ -55,10 +58,8 @@ export async function loadPositionResults(k: Knex, sessionId: number): Promise<P
 	return positionResults(k, latestPerPosition(await analysedCaptureRowsOfSession(k, sessionId)));
 }
 
-async function sessionSummary(k: Knex, sessionId: number): Promise<{ key: string | null; summary: SessionSummary }> {
-	const [s, rows] = await Promise.all([getSession(k, sessionId), analysedCaptureRowsOfSession(k, sessionId)]);
+async function summaryOf(k: Knex, meta: SessionMeta, rows: AnalysedCaptureRow[]): Promise<{ key: string | null; summary: SessionSummary }> {
 	const latest = latestPerPosition(rows);
-	const meta = { sessionId, conditionLabel: s!.conditionLabel, measuredOn: s!.measuredOn };
 	// The summary is worked out from these alone.
 	const key = JSON.stringify([meta, latest.map((a) => [a.captureId, a.positionLabel, a.sourceLabel, a.micLabel, analysisKey(a)])]);
 	const hit = summaryCache.get(key);
@@ -69,38 +70,80 @@ async function sessionSummary(k: Knex, sessionId: number): Promise<{ key: string
 	return positions.length === latest.length ? { key, summary: await summaryCache.through(key, () => summary) } : { key: null, summary };
 }
 
+/** Visits' summaries with their cache keys, in the order asked, from two queries for them all; `known` skips reading their condition and date. */
+async function sessionSummaries(k: Knex, sessionIds: number[], known: SessionMeta[] = []): Promise<{ key: string | null; summary: SessionSummary }[]> {
+	const unknown = sessionIds.filter((id) => !known.some((m) => m.sessionId === id));
+	const [metas, rows] = await Promise.all([sessionMetas(k, unknown), analysedCaptureRowsOfSessions(k, sessionIds)]);
+	return Promise.all(
+		sessionIds.map((id) => {
+			const meta = [...known, ...metas].find((m) => m.sessionId === id)!;
+			return summaryOf(k, { sessionId: id, conditionLabel: meta.conditionLabel, measuredOn: meta.measuredOn }, rows.filter((r) => r.sessionId === id));
+		})
+	);
+}
+
+async function sessionSummary(k: Knex, sessionId: number, known?: SessionMeta): Promise<{ key: string | null; summary: SessionSummary }> {
+	return (await sessionSummaries(k, [sessionId], known ? [known] : []))[0];
+}
+
 /** A visit's results; the same object for as long as its analyses and labels stay the same (frozen). */
 export async function loadSessionSummary(k: Knex, sessionId: number): Promise<SessionSummary> {
 	return (await sessionSummary(k, sessionId)).summary;
 }
 
 export async function roomFacts(k: Knex, roomId: number): Promise<RoomFacts> {
-	const r = (await getRoom(k, roomId))!;
-	return { name: r.name, lengthM: r.lengthM, widthM: r.widthM, heightM: r.heightM, volumeM3: r.volumeM3, roomUse: r.roomUse };
+	return factsOf((await getRoom(k, roomId))!);
+}
+
+const factsOf = (r: RoomRow): RoomFacts => ({ name: r.name, lengthM: r.lengthM, widthM: r.widthM, heightM: r.heightM, volumeM3: r.volumeM3, roomUse: r.roomUse });
+
+async function comparison(k: Knex, c: ComparisonRow, knownRoom?: RoomRow): Promise<{ key: string | null; model: ComparisonModel }> {
+	const [room, [baseline, treated]] = await Promise.all([knownRoom ? factsOf(knownRoom) : roomFacts(k, c.roomId), sessionSummaries(k, [c.baselineSessionId, c.treatedSessionId])]);
+	if (baseline.key === null || treated.key === null) return { key: null, model: compareSessions(room, baseline.summary, treated.summary) };
+	const key = JSON.stringify([room, baseline.key, treated.key]);
+	return { key, model: await comparisonCache.through(key, () => compareSessions(room, baseline.summary, treated.summary)) };
 }
 
 export async function loadComparisonModel(k: Knex, c: ComparisonRow): Promise<ComparisonModel> {
-	const [room, baseline, treated] = await Promise.all([roomFacts(k, c.roomId), sessionSummary(k, c.baselineSessionId), sessionSummary(k, c.treatedSessionId)]);
-	if (baseline.key === null || treated.key === null) return compareSessions(room, baseline.summary, treated.summary);
-	return comparisonCache.through(JSON.stringify([room, baseline.key, treated.key]), () => compareSessions(room, baseline.summary, treated.summary));
+	return (await comparison(k, c)).model;
 }
 
 /**
- * A visit's summary as pages draw it: the response charts plot only the smoothed curves, so the
- * unsmoothed levels (a seventh of each response) are not sent, and responses on the same
- * frequencies share one array, which the page data then carries once; exports use the whole summary.
+ * A strong entity tag naming what a cache key was made from; a result read while an analysis
+ * was being replaced (no key) gets a tag of its own that nothing matches.
  */
-export function withoutRawLevels(s: SessionSummary): SessionSummary {
-	const grids: number[][] = [];
-	const shared = (freqHz: number[]) => {
-		const same = grids.find((g) => g.length === freqHz.length && g.every((f, i) => f === freqHz[i]));
-		if (same) return same;
-		grids.push(freqHz);
-		return freqHz;
-	};
-	return {
-		...s,
-		positions: s.positions.map((p) => ({ ...p, response: { ...p.response, freqHz: shared(p.response.freqHz), db: [] } })),
-		averageResponse: s.averageResponse && { ...s.averageResponse, freqHz: shared(s.averageResponse.freqHz), db: [] }
-	};
+function resultsTag(kind: 'v' | 'c', key: string | null): string {
+	return `"${kind}${key === null ? randomUUID() : createHash('sha256').update(key).digest('base64url').slice(0, 24)}"`;
+}
+
+// The views are worked out once per cached summary or comparison (frozen, so they can be shared),
+// and serialized for the page data then too (lib/packed.ts).
+const visitViews = new WeakMap<SessionSummary, VisitResultsView>();
+const comparisonViews = new WeakMap<ComparisonModel, ComparisonView>();
+
+/** A visit's results with their entity tag: the `responses` and `bands` routes answer from these. */
+export async function loadSessionResults(k: Knex, sessionId: number, known?: SessionMeta): Promise<{ summary: SessionSummary; tag: string }> {
+	const { key, summary } = await sessionSummary(k, sessionId, known);
+	return { summary, tag: resultsTag('v', key) };
+}
+
+/** What the visit page draws of its results (see results/drawn.ts); `known`: the visit's condition and date, already read. */
+export async function loadVisitResultsView(k: Knex, sessionId: number, known?: SessionMeta): Promise<VisitResultsView> {
+	const { summary, tag } = await loadSessionResults(k, sessionId, known);
+	let view = visitViews.get(summary);
+	if (!view) visitViews.set(summary, (view = pack(deepFreeze(visitResultsView(summary, tag)))));
+	return view;
+}
+
+/** A comparison with its entity tag; `room`: its room, already read. */
+export async function loadComparisonResults(k: Knex, c: ComparisonRow, room?: RoomRow): Promise<{ model: ComparisonModel; tag: string }> {
+	const { key, model } = await comparison(k, c, room);
+	return { model, tag: resultsTag('c', key) };
+}
+
+/** What the comparison and report pages draw of a comparison, with its entity tag inside. */
+export function comparisonViewOf(model: ComparisonModel, tag: string): ComparisonView {
+	let view = comparisonViews.get(model);
+	if (!view) comparisonViews.set(model, (view = pack(deepFreeze(comparisonView(model, tag)))));
+	return view;
 }

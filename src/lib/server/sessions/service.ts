@@ -6,38 +6,39 @@ import { conflict, notFound, Problem } from '../problem';
 import { transaction } from '../transaction';
 import type { Scope } from '../auth/access';
 import { checkPositionInRoom, createPosition, deleteEmptyPosition, isPositionOfSession, listPositions, updatePosition, type PositionInput } from '../queries/positions';
-import { getProject } from '../queries/projects';
 import { listProblemBands } from '../queries/reviews';
 import { getRoom } from '../queries/rooms';
-import { getSession } from '../queries/sessions';
+import { getSession, getVisitHeader } from '../queries/sessions';
 import { listSweeps } from '../queries/sweeps';
-import { loadSessionSummary, withoutRawLevels } from '../results/load';
+import { loadSessionResults, loadSessionSummary, loadVisitResultsView } from '../results/load';
+import { visitBands, visitResponses, type VisitBands, type VisitResponses } from '../../results/drawn';
+import type { BandKind } from '../../analysis/bands';
+import type { SmoothingKey } from '../../analysis/types';
 import { sessionCaptureViews } from '../captures/views';
 import { roleAllows } from '../../roles';
 
 /** The visit page: captures, results and test signals only for the roles that may see or use them. */
 export async function visitPage(scope: Scope, sessionId: number) {
 	const k = db();
-	const session = (await getSession(k, sessionId))!;
-	const room = (await getRoom(k, session.roomId))!;
+	const { session, room, project } = (await getVisitHeader(k, sessionId))!;
 	const internal = roleAllows(scope.role, 'project:internal');
 	const upload = roleAllows(scope.role, 'capture:write');
-	const [project, captures, summary, problemBands, sweeps, positions] = await Promise.all([
-		getProject(k, room.projectId),
+	const [captures, summary, problemBands, sweeps, positions] = await Promise.all([
 		internal ? sessionCaptureViews(k, sessionId) : [],
-		internal ? loadSessionSummary(k, sessionId) : null,
+		internal ? loadVisitResultsView(k, sessionId, { sessionId, conditionLabel: session.conditionLabel, measuredOn: session.measuredOn }) : null,
 		internal ? listProblemBands(k, room.id) : [],
 		upload ? listSweeps(k, scope.organizationId) : [],
 		listPositions(k, sessionId)
 	]);
 	return {
 		captures,
-		summary: summary && withoutRawLevels(summary),
+		// What the results draw; other smoothings and the one-third-octave tables are fetched on demand.
+		summary,
 		problemBands,
 		sweeps: sweeps.map((s) => ({ id: s.id, name: s.name, durationS: s.durationS })),
 		session,
 		room: { id: room.id, name: room.name, lengthM: room.lengthM, widthM: room.widthM, heightM: room.heightM },
-		project: { id: project!.id, name: project!.name },
+		project,
 		positions,
 		can: { edit: roleAllows(scope.role, 'project:edit'), upload, internal }
 	};
@@ -46,6 +47,20 @@ export async function visitPage(scope: Scope, sessionId: number) {
 /** A visit's spatial average per band (for the export). */
 export function visitAverage(sessionId: number) {
 	return loadSessionSummary(db(), sessionId);
+}
+
+/** A visit's responses at one smoothing, with the tag of the results they come from. */
+export async function visitResponsesAt(sessionId: number, smoothing: SmoothingKey): Promise<{ tag: string; answer: () => VisitResponses }> {
+	const { summary, tag } = await loadSessionResults(db(), sessionId);
+	return { tag, answer: () => visitResponses(summary, smoothing) };
+}
+
+/** A visit's band tables of one kind, with the tag of the results they come from. */
+export async function visitBandsOf(sessionId: number, bandKind: BandKind): Promise<{ tag: string; answer: () => VisitBands }> {
+	const { summary, tag } = await loadSessionResults(db(), sessionId);
+	const bands = visitBands(summary, bandKind);
+	if (!bands) throw notFound('This visit has no one-third-octave bands: its captures were analysed without them.');
+	return { tag, answer: () => bands };
 }
 
 const DUPLICATE_LABEL = { duplicate: 'This visit already has a position with that label.', field: 'label' };

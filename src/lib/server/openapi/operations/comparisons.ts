@@ -1,7 +1,8 @@
 // Comparisons of two visits of a room, their exports and their printed report.
 import { exportQuerySchema } from '../../../schemas/exports';
+import { bandsQuerySchema, responsesQuerySchema } from '../../../schemas/results';
 import type { ApiOperation } from '../registry';
-import { binary, comparisonExportSchema, comparisonSchema } from '../shapes';
+import { binary, comparisonBandsSchema, comparisonExportSchema, comparisonResponsesSchema, comparisonSchema, ifNoneMatch, TAGGED, taggedResponses } from '../shapes';
 
 const route = '/api/comparisons/[comparisonId=id]';
 const CLIENTS = 'Clients reach only published comparisons of their own projects; a draft answers them 404.';
@@ -34,6 +35,35 @@ export const comparisonOperations: ApiOperation[] = [
 			}
 		},
 		errors: { 400: 'format is neither csv nor json.', 404: `No such comparison within your reach. ${CLIENTS}` }
+	},
+	{
+		method: 'get',
+		route: `${route}/responses`,
+		resource: 'Comparisons',
+		operationId: 'getComparisonResponses',
+		summary: 'The averaged responses before and after, at one smoothing',
+		description: `Each visit's power-averaged frequency response, 1/N-octave smoothed (what the comparison and report pages draw for another smoothing than their first). ${TAGGED} ${CLIENTS}`,
+		access: 'project:read',
+		query: responsesQuerySchema,
+		headers: ifNoneMatch,
+		responses: taggedResponses('The responses.', comparisonResponsesSchema),
+		errors: { 404: `No such comparison within your reach. ${CLIENTS}`, 422: 'smoothing is missing or not 1, 3, 6, 12 or 24 (code invalid).' }
+	},
+	{
+		method: 'get',
+		route: `${route}/bands`,
+		resource: 'Comparisons',
+		operationId: 'getComparisonBands',
+		summary: 'The band-by-band comparison of one kind',
+		description: `Per octave or one-third-octave band: each metric before, after and its change, judged against the spread of the positions and the JND (what the pages show when one-third octaves are chosen). ${TAGGED} ${CLIENTS}`,
+		access: 'project:read',
+		query: bandsQuerySchema,
+		headers: ifNoneMatch,
+		responses: taggedResponses('The band tables.', comparisonBandsSchema),
+		errors: {
+			404: `No such comparison within your reach, or a visit has no one-third-octave bands. ${CLIENTS}`,
+			422: 'kind is missing or neither octave nor third (code invalid).'
+		}
 	},
 	{
 		method: 'get',

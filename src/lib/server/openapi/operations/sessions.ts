@@ -1,8 +1,21 @@
 // Visits (sessions in the paths): their captures, the two ways to upload, and their averages.
 import { captureUploadFormSchema, createCaptureSchema } from '../../../schemas/captures';
 import { exportQuerySchema } from '../../../schemas/exports';
+import { bandsQuerySchema, responsesQuerySchema } from '../../../schemas/results';
 import type { ApiOperation, DescriptionLimits } from '../registry';
-import { binary, captureEnvelopeSchema, createdCaptureSchema, queuedSchema, sessionAverageExportSchema, sessionCapturesSchema } from '../shapes';
+import {
+	binary,
+	captureEnvelopeSchema,
+	createdCaptureSchema,
+	ifNoneMatch,
+	queuedSchema,
+	sessionAverageExportSchema,
+	sessionCapturesSchema,
+	TAGGED,
+	taggedResponses,
+	visitBandsSchema,
+	visitResponsesSchema
+} from '../shapes';
 
 const route = '/api/sessions/[sessionId=id]';
 
@@ -24,6 +37,32 @@ export function sessionOperations(limits: DescriptionLimits): ApiOperation[] {
 				}
 			},
 			errors: { 400: 'format is neither csv nor json.' }
+		},
+		{
+			method: 'get',
+			route: `${route}/responses`,
+			resource: 'Visits',
+			operationId: 'getVisitResponses',
+			summary: 'A visit\'s responses at one smoothing',
+			description: `Each position's frequency response and their power average, 1/N-octave smoothed (what the visit page draws for another smoothing than its first). ${TAGGED}`,
+			access: 'project:internal',
+			query: responsesQuerySchema,
+			headers: ifNoneMatch,
+			responses: taggedResponses('The responses.', visitResponsesSchema),
+			errors: { 422: 'smoothing is missing or not 1, 3, 6, 12 or 24 (code invalid).' }
+		},
+		{
+			method: 'get',
+			route: `${route}/bands`,
+			resource: 'Visits',
+			operationId: 'getVisitBands',
+			summary: 'A visit\'s band tables of one kind',
+			description: `Per octave or one-third-octave band: each position's T30, T20, EDT, C80 and C50, their average and their spread with the measurement grade (what the visit page shows when one-third octaves are chosen). ${TAGGED}`,
+			access: 'project:internal',
+			query: bandsQuerySchema,
+			headers: ifNoneMatch,
+			responses: taggedResponses('The band tables.', visitBandsSchema),
+			errors: { 404: 'No such visit within your reach, or it has no one-third-octave bands.', 422: 'kind is missing or neither octave nor third (code invalid).' }
 		},
 		{
 			method: 'get',

@@ -1,6 +1,6 @@
 import { authorize } from '$lib/server/auth/access';
 import { download, exportFormat } from '$lib/server/exports';
-import { loadComparisonPage } from '$lib/server/results/comparison-page';
+import { loadComparisonDocument } from '$lib/server/results/comparison-page';
 import { comparisonCsv, comparisonJson } from '$lib/results/exports';
 import type { RequestHandler } from './$types';
 
@@ -9,6 +9,6 @@ export const GET: RequestHandler = async ({ locals, params, url }) => {
 	const comparisonId = Number(params.comparisonId);
 	const scope = await authorize(locals, 'project:read', { comparisonId });
 	const format = exportFormat(url);
-	const page = await loadComparisonPage(scope, comparisonId, { positionCurves: true });
+	const page = await loadComparisonDocument(scope, comparisonId);
 	return download(format, `${page.room.name}-comparison`, () => comparisonCsv(page.model), () => comparisonJson(page.model));
 };
