@@ -188,3 +188,96 @@ export function realFftPlan(size: number): RealFftPlan {
 	}
 	return plan;
 }
+
+/**
+ * The first `bins` bins of an N-point DFT of a short real sequence that starts at sample `start`
+ * of a longer signal: Y[k] = Σ_j x[j]·W^((start + j)·k), W = e^(−2πi/N), k < bins — so the pieces
+ * of one signal add up to its DFT. Computed as a convolution with a chirp, by FFTs of a size M ≥
+ * bins + length − 1 much smaller than N (Bluestein, "A linear filtering approach to the
+ * computation of the discrete Fourier transform", IEEE Trans. Audio Electroacoust. 18(4), 1970;
+ * from memory): with jk = (j² + k² − (k − j)²)/2,
+ *   Y[k] = W^(start·k)·W^(k²/2)·Σ_j (x[j]·W^(j²/2))·W^(−(k−j)²/2).
+ * Every phase is taken from an exact integer product reduced modulo 2N, so long signals lose no
+ * accuracy to large angles. One caller at a time (scratch buffers).
+ */
+export class ChirpDftPlan {
+	readonly size: number;
+	readonly bins: number;
+	readonly maxLength: number;
+	/** FFT size of the convolution. */
+	readonly convolutionSize: number;
+	private readonly fft: FFT;
+	/** W^(m²/2) for m < max(bins, maxLength), interleaved (re, im). */
+	private readonly chirp: Float64Array;
+	/** FFT of the conjugate chirp laid out for the circular convolution. */
+	private readonly filter: Float64Array;
+	private readonly work: Float64Array;
+	private readonly transformed: Float64Array;
+
+	constructor(size: number, bins: number, maxLength: number) {
+		if (!(Number.isInteger(size) && size >= 2)) throw new RangeError(`DFT size must be an integer ≥ 2, got ${size}`);
+		if (!(Number.isInteger(bins) && bins >= 1 && bins <= size)) throw new RangeError(`bins must be an integer in 1…${size}, got ${bins}`);
+		if (!(Number.isInteger(maxLength) && maxLength >= 1)) throw new RangeError(`maxLength must be a positive integer, got ${maxLength}`);
+		this.size = size;
+		this.bins = bins;
+		this.maxLength = maxLength;
+		const m = fftSizeFor(bins + maxLength - 1);
+		this.convolutionSize = m;
+		this.fft = fftOfSize(m);
+		const count = Math.max(bins, maxLength);
+		this.chirp = new Float64Array(2 * count);
+		for (let j = 0; j < count; j++) {
+			const angle = (Math.PI * ((j * j) % (2 * size))) / size;
+			this.chirp[2 * j] = Math.cos(angle);
+			this.chirp[2 * j + 1] = -Math.sin(angle);
+		}
+		// b[d] = W^(−d²/2) for d = k − j in −(maxLength − 1)…bins − 1, negative d wrapped to M + d.
+		const b = new Float64Array(2 * m);
+		for (let d = 0; d < bins; d++) {
+			b[2 * d] = this.chirp[2 * d];
+			b[2 * d + 1] = -this.chirp[2 * d + 1];
+		}
+		for (let d = 1; d < maxLength; d++) {
+			b[2 * (m - d)] = this.chirp[2 * d];
+			b[2 * (m - d) + 1] = -this.chirp[2 * d + 1];
+		}
+		this.filter = new Float64Array(2 * m);
+		this.fft.transform(this.filter, b);
+		this.work = new Float64Array(2 * m);
+		this.transformed = new Float64Array(2 * m);
+	}
+
+	/** Adds Y[k] of x (at most maxLength samples, the first at `start`) into `sum` (interleaved, ≥ 2·bins values). */
+	addTo(x: Float64Array, start: number, sum: Float64Array): void {
+		const length = x.length;
+		if (length > this.maxLength) throw new RangeError(`${length} samples exceed this plan's ${this.maxLength}`);
+		if (!(Number.isInteger(start) && start >= 0)) throw new RangeError(`start must be a whole number, got ${start}`);
+		if (sum.length < 2 * this.bins) throw new RangeError(`sum needs ${2 * this.bins} values, got ${sum.length}`);
+		if (length === 0) return;
+		const { chirp, filter, work, transformed } = this;
+		for (let j = 0; j < length; j++) {
+			work[2 * j] = x[j] * chirp[2 * j];
+			work[2 * j + 1] = x[j] * chirp[2 * j + 1];
+		}
+		work.fill(0, 2 * length);
+		this.fft.transform(transformed, work);
+		for (let i = 0; i < transformed.length; i += 2) {
+			const re = transformed[i] * filter[i] - transformed[i + 1] * filter[i + 1];
+			const im = transformed[i] * filter[i + 1] + transformed[i + 1] * filter[i];
+			work[i] = re;
+			work[i + 1] = im;
+		}
+		this.fft.inverseTransform(transformed, work);
+		const twoN = 2 * this.size;
+		for (let k = 0; k < this.bins; k++) {
+			// W^(k²/2 + start·k) = e^(−iπ(k² + 2·start·k)/N): both terms exact integers below 2^53.
+			const angle = (Math.PI * ((k * k + 2 * start * k) % twoN)) / this.size;
+			const c = Math.cos(angle);
+			const s = -Math.sin(angle);
+			const re = transformed[2 * k];
+			const im = transformed[2 * k + 1];
+			sum[2 * k] += re * c - im * s;
+			sum[2 * k + 1] += re * s + im * c;
+		}
+	}
+}

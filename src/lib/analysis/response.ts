@@ -9,7 +9,7 @@ export type SmoothingFraction = (typeof SMOOTHING_FRACTIONS)[number];
 
 /** Level given to bins with zero power, instead of −Infinity. */
 export const POWER_FLOOR_DB = -300;
-const POWER_FLOOR = 10 ** (POWER_FLOOR_DB / 10);
+export const POWER_FLOOR = 10 ** (POWER_FLOOR_DB / 10);
 
 export interface Spectrum {
 	freqHz: Float64Array;

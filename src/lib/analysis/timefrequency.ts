@@ -1,11 +1,13 @@
 // Cumulative spectral decay: how the spectrum of the remaining impulse response falls with
 // time, one slice per start time, for a waterfall chart of the low-frequency decay.
 import { AnalysisInputError } from './errors';
+import { ChirpDftPlan, realFftPlan } from './fft';
 import {
 	applyHalfHannFadeIn,
 	applyHalfHannFadeOut,
 	logSpacedCurve,
 	nextPowerOfTwo,
+	POWER_FLOOR,
 	PowerSpectrumPlan,
 	smoothedLogSpacedCurves
 } from './response';
@@ -95,33 +97,90 @@ export function cumulativeSpectralDecay(
 	const window = ir.slice(startIndex, end);
 	applyHalfHannFadeOut(window, Math.floor(0.1 * windowLength));
 	// At least 1 Hz bins, so 1/6-octave smoothing still averages several bins at 20 Hz.
-	const plan = new PowerSpectrumPlan(nextPowerOfTwo(Math.max(windowLength, sampleRate)));
+	const fftSize = nextPowerOfTwo(Math.max(windowLength, sampleRate));
 	// Bins needed: up to fMax plus the upper half of its smoothing window.
-	const binCount = Math.min(
-		plan.binCount,
-		Math.ceil((fMaxHz * 2 ** (1 / (2 * SLICE_SMOOTHING)) * plan.fftSize) / sampleRate) + 2
-	);
-	const freqHz = plan.frequencies(sampleRate, binCount);
-	const powerDb = new Float64Array(binCount);
+	const binCount = Math.min(fftSize / 2 + 1, Math.ceil((fMaxHz * 2 ** (1 / (2 * SLICE_SMOOTHING)) * fftSize) / sampleRate) + 2);
+	const freqHz = Float64Array.from({ length: binCount }, (_, k) => (k * sampleRate) / fftSize);
+	const offsets = Array.from({ length: slices }, (_, s) => Math.round((s * (lastSliceStart - startIndex)) / (slices - 1)));
+	const powers = slicePowersDb(window, offsets, fadeIn, fftSize, binCount);
 
-	const timesMs: number[] = [];
-	const curves: number[][] = [];
-	const buffer = new Float64Array(windowLength);
-	for (let s = 0; s < slices; s++) {
-		const offset = Math.round((s * (lastSliceStart - startIndex)) / (slices - 1));
-		const slice = buffer.subarray(0, windowLength - offset);
-		slice.set(window.subarray(offset));
-		applyHalfHannFadeIn(slice, fadeIn);
-		plan.powerDb(slice, binCount, powerDb);
-		// Smoothed only where the log-spaced points read it: the same numbers as smoothing every bin.
-		const [curve] = smoothedLogSpacedCurves(freqHz, powerDb, [SLICE_SMOOTHING], { fMinHz, fMaxHz, pointsPerOctave });
-		timesMs.push(Math.round((1e6 * offset) / sampleRate) / 1000);
-		curves.push(curve);
-	}
-	const grid = logSpacedCurve(freqHz, powerDb, { fMinHz, fMaxHz, pointsPerOctave }).freqHz;
+	const timesMs = offsets.map((offset) => Math.round((1e6 * offset) / sampleRate) / 1000);
+	// Smoothed only where the log-spaced points read it: the same numbers as smoothing every bin.
+	const curves = powers.map((powerDb) => smoothedLogSpacedCurves(freqHz, powerDb, [SLICE_SMOOTHING], { fMinHz, fMaxHz, pointsPerOctave })[0]);
+	const grid = logSpacedCurve(freqHz, powers[0], { fMinHz, fMaxHz, pointsPerOctave }).freqHz;
 	const reference = Math.max(...curves[0]);
 	const levelsDb = curves.map((curve) =>
 		curve.map((db) => Math.round(Math.max(SPECTRAL_DECAY_FLOOR_DB, db - reference) * 100) / 100)
 	);
 	return { timesMs, freqHz: grid, levelsDb };
+}
+
+/**
+ * 10·lg|X_s(k)|² for k < binCount of each slice s: window[offsets[s]…] with a half-Hann rise over
+ * its first `fadeIn` samples, zero-padded to fftSize (floored as PowerSpectrumPlan floors).
+ *
+ * Slices only lose samples at their start, so the transform of the unfaded part of slice s is that
+ * of slice s + 1 plus the DFT of the samples between their starts: one FFT for the last slice, then
+ * for each earlier one the short DFTs of those samples and of its rise, at the bins needed only
+ * (ChirpDftPlan). All in one time origin (the window's start), so the pieces add up; |X| does not
+ * depend on the origin, so these are the magnitudes of one FFT per slice, to round-off.
+ */
+function slicePowersDb(window: Float64Array, offsets: number[], fadeIn: number, fftSize: number, binCount: number): Float64Array[] {
+	const last = offsets.length - 1;
+	const rise = new Float64Array(fadeIn);
+	// The weights applyHalfHannFadeIn gives the first fadeIn samples.
+	for (let k = 0; k < fadeIn; k++) rise[k] = 0.5 * (1 - Math.cos((Math.PI * (k + 1)) / (fadeIn + 1)));
+	let longestGap = 1;
+	for (let s = 0; s < last; s++) longestGap = Math.max(longestGap, offsets[s + 1] - offsets[s]);
+	const pieces = new ChirpDftPlan(fftSize, binCount, Math.max(longestGap, fadeIn));
+	// Four FFTs of the convolution's size per slice against one of fftSize: not worth it for wide
+	// ranges or widely spaced slices (options the charts do not use), which take one FFT per slice.
+	if (4 * pieces.convolutionSize > fftSize) return slicePowersByFft(window, offsets, fadeIn, fftSize, binCount);
+
+	const toDb = (spectrum: Float64Array, out: Float64Array) => {
+		for (let k = 0; k < binCount; k++) {
+			const re = spectrum[2 * k];
+			const im = spectrum[2 * k + 1];
+			out[k] = 10 * Math.log10(Math.max(re * re + im * im, POWER_FLOOR));
+		}
+		return out;
+	};
+	// tail: the DFT of window[offsets[s] + fadeIn…], the unfaded part of slice s.
+	const tail = new Float64Array(2 * binCount);
+	const tailStart = offsets[last] + fadeIn;
+	const plan = realFftPlan(fftSize);
+	const spectrum = new Float64Array(fftSize + 2);
+	plan.forward(window.subarray(tailStart), spectrum);
+	for (let k = 0; k < binCount; k++) {
+		// Its FFT starts at tailStart: shifted to the window's origin by W^(tailStart·k).
+		const angle = (2 * Math.PI * ((tailStart * k) % fftSize)) / fftSize;
+		const c = Math.cos(angle);
+		const s = -Math.sin(angle);
+		tail[2 * k] = spectrum[2 * k] * c - spectrum[2 * k + 1] * s;
+		tail[2 * k + 1] = spectrum[2 * k] * s + spectrum[2 * k + 1] * c;
+	}
+	const faded = new Float64Array(fadeIn);
+	const slice = new Float64Array(2 * binCount);
+	const powers: Float64Array[] = new Array(offsets.length);
+	for (let s = last; s >= 0; s--) {
+		const start = offsets[s];
+		if (s < last) pieces.addTo(window.subarray(start + fadeIn, offsets[s + 1] + fadeIn), start + fadeIn, tail);
+		slice.set(tail);
+		for (let k = 0; k < fadeIn; k++) faded[k] = window[start + k] * rise[k];
+		pieces.addTo(faded, start, slice);
+		powers[s] = toDb(slice, new Float64Array(binCount));
+	}
+	return powers;
+}
+
+/** The same by one FFT per slice. */
+function slicePowersByFft(window: Float64Array, offsets: number[], fadeIn: number, fftSize: number, binCount: number): Float64Array[] {
+	const plan = new PowerSpectrumPlan(fftSize);
+	const buffer = new Float64Array(window.length);
+	return offsets.map((offset) => {
+		const slice = buffer.subarray(0, window.length - offset);
+		slice.set(window.subarray(offset));
+		applyHalfHannFadeIn(slice, fadeIn);
+		return plan.powerDb(slice, binCount);
+	});
 }

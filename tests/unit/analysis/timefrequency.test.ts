@@ -1,4 +1,7 @@
+import FFT from 'fft.js';
 import { describe, expect, it } from 'vitest';
+import { logSpacedCurve, smoothFractionalOctave } from '../../../src/lib/analysis/response';
+import { exponentialNoiseDecay } from '../../../src/lib/analysis/synthetic';
 import { SPECTRAL_DECAY_FLOOR_DB, cumulativeSpectralDecay } from '../../../src/lib/analysis/timefrequency';
 
 const SAMPLE_RATE = 48000;
@@ -84,5 +87,50 @@ describe('cumulativeSpectralDecay layout', () => {
 		{ name: 'fMin above fMax', call: () => cumulativeSpectralDecay(ir, SAMPLE_RATE, 0, { fMinHz: 600 }), message: /fMinHz/ }
 	])('rejects $name', ({ call, message }) => {
 		expect(call).toThrow(message);
+	});
+});
+
+describe('cumulativeSpectralDecay by pieces', () => {
+	// The slices are computed from one FFT of the last slice and short DFTs of what each earlier
+	// slice adds: the same as one FFT per slice (the definition above), done here with fft.js
+	// itself, the plain smoothing of every bin and the plain log-spaced sampling.
+	function plainDecay(ir: Float64Array, sampleRate: number, startIndex: number, o: { durationMs: number; slices: number; fMinHz: number; fMaxHz: number }) {
+		const rate = (ms: number) => Math.round((ms * sampleRate) / 1000);
+		const end = Math.min(ir.length, startIndex + rate(o.durationMs + 500));
+		const window = ir.slice(startIndex, end);
+		const fadeOut = Math.floor(0.1 * window.length);
+		for (let k = 0; k < fadeOut; k++) window[window.length - fadeOut + k] *= 0.5 * (1 + Math.cos((Math.PI * (k + 1)) / (fadeOut + 1)));
+		let size = 4;
+		while (size < Math.max(window.length, sampleRate)) size *= 2;
+		const fft = new FFT(size);
+		const fadeIn = rate(2);
+		const freqHz = Float64Array.from({ length: size / 2 + 1 }, (_, k) => (k * sampleRate) / size);
+		const grid = { fMinHz: o.fMinHz, fMaxHz: o.fMaxHz, pointsPerOctave: 24 };
+		const curves = Array.from({ length: o.slices }, (_, s) => {
+			const offset = Math.round((s * rate(o.durationMs)) / (o.slices - 1));
+			const padded = new Float64Array(size);
+			padded.set(window.subarray(offset));
+			for (let k = 0; k < fadeIn; k++) padded[k] *= 0.5 * (1 - Math.cos((Math.PI * (k + 1)) / (fadeIn + 1)));
+			const spectrum = new Float64Array(2 * size);
+			fft.realTransform(spectrum, padded);
+			const powerDb = freqHz.map((_, k) => 10 * Math.log10(Math.max(spectrum[2 * k] ** 2 + spectrum[2 * k + 1] ** 2, 1e-30)));
+			return logSpacedCurve(freqHz, smoothFractionalOctave(freqHz, powerDb, 6), grid).db;
+		});
+		const reference = Math.max(...curves[0]);
+		return curves.map((curve) => curve.map((db) => Math.round(Math.max(SPECTRAL_DECAY_FLOOR_DB, db - reference) * 100) / 100));
+	}
+
+	it.each([
+		{ sampleRate: 44100, durationMs: 300, slices: 31, fMinHz: 20, fMaxHz: 500 },
+		{ sampleRate: 48000, durationMs: 300, slices: 31, fMinHz: 20, fMaxHz: 500 },
+		{ sampleRate: 96000, durationMs: 300, slices: 31, fMinHz: 20, fMaxHz: 500 },
+		{ sampleRate: 48000, durationMs: 100, slices: 5, fMinHz: 40, fMaxHz: 320 },
+		// Wide enough that the short DFTs would cost more: one FFT per slice.
+		{ sampleRate: 48000, durationMs: 300, slices: 31, fMinHz: 20, fMaxHz: 20000 }
+	])('$sampleRate Hz, $slices slices over $durationMs ms, $fMinHz–$fMaxHz Hz: every level as one FFT per slice gives', (o) => {
+		const ir = exponentialNoiseDecay({ t60S: 0.6, durationS: 1.2, sampleRate: o.sampleRate, onsetS: 0.01, noiseDbRePeak: -70, seed: 21 });
+		const start = Math.round(0.01 * o.sampleRate);
+		const decay = cumulativeSpectralDecay(ir, o.sampleRate, start, o);
+		expect(decay.levelsDb).toEqual(plainDecay(ir, o.sampleRate, start, o));
 	});
 });
