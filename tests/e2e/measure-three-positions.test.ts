@@ -56,7 +56,7 @@ describe('three positions of the demo room, measured in the browser', () => {
 		const check = await startAndCheckLevel(page, signalName);
 		expect(await check.getAttribute('data-verdict')).toBe('good');
 		await page.getByLabel('Repetitions').fill(String(REPETITIONS));
-		const steps: { label: string; atS: number }[] = [];
+		const steps: { label: string; atS: number; recordS: number; alignS: number; uploadS: number }[] = [];
 		for (const label of ['P1', 'P2', 'P3']) {
 			if (label !== 'P1') await page.getByRole('button', { name: 'Next position' }).click();
 			await page.getByRole('button', { name: `Measure ${label}` }).click();
@@ -64,13 +64,15 @@ describe('three positions of the demo room, measured in the browser', () => {
 			expect(await page.getByTestId('take-result').locator('h3').innerText()).toMatch(new RegExp(`^${label}: ${label}-measured-${REPETITIONS}x-`));
 			const t30 = await page.getByTestId('band-row').locator('[data-metric="t30"]').allInnerTexts();
 			expect(t30.filter((t) => /\d\.\d\d\u00a0s/.test(t)).length).toBeGreaterThanOrEqual(6);
-			steps.push({ label, atS: (Date.now() - started) / 1000 });
+			const result = page.getByTestId('take-result');
+			const seconds = async (name: string) => Number(await result.getAttribute(name)) / 1000;
+			steps.push({ label, atS: (Date.now() - started) / 1000, recordS: await seconds('data-record-ms'), alignS: await seconds('data-align-ms'), uploadS: await seconds('data-upload-ms') });
 		}
 		const totalS = (Date.now() - started) / 1000;
 		const takeS = 0.5 + REPETITIONS * (SWEEP_S + SIGNAL.silenceS) + 1;
 		console.log(
 			`three-position browser measurement: ${SWEEP_S} s sweep + ${SIGNAL.silenceS} s silence, ${REPETITIONS} repetitions (${takeS.toFixed(1)} s of playing and recording per take): ` +
-				`${steps.map((s) => `${s.label} analysed at ${s.atS.toFixed(1)} s`).join(', ')}; total ${totalS.toFixed(1)} s from opening the page`
+				`${steps.map((s) => `${s.label} analysed at ${s.atS.toFixed(1)} s (recorded ${s.recordS.toFixed(1)} s, aligned ${s.alignS.toFixed(2)} s, uploaded ${s.uploadS.toFixed(2)} s)`).join(', ')}; total ${totalS.toFixed(1)} s from opening the page`
 		);
 		// Three takes of playing cannot be quicker than their own length.
 		expect(totalS).toBeGreaterThan(3 * takeS);

@@ -226,7 +226,7 @@ export class AudioRig {
 	}
 
 	async close(): Promise<void> {
-		navigator.mediaDevices?.removeEventListener('devicechange', this.onDeviceChange);
+		if (typeof navigator !== 'undefined') navigator.mediaDevices?.removeEventListener('devicechange', this.onDeviceChange);
 		await this.closeContext();
 		this.ready = false;
 	}
