@@ -151,5 +151,23 @@ describe('visit records', () => {
 		await viewer.getByRole('button', { name: 'Close' }).click();
 		expect(await pageWidth(page)).toBeLessThanOrEqual(PHONE.width);
 		if (SHOTS) await page.screenshot({ path: `${SHOTS}/visit-photos-client-390.png`, fullPage: true });
+
+		// The demo's untreated visit comes with its photos: the room from the door and the main seat.
+		await page.goto('/projects');
+		await page.getByRole('link', { name: 'Lindqvist listening room' }).click();
+		await page.getByRole('link', { name: 'Attic listening room' }).click();
+		await page.waitForURL(/\/rooms\/\d+$/);
+		await page.getByRole('link', { name: '2026-10-06' }).first().click();
+		await page.waitForURL(/\/sessions\/\d+$/);
+		await page.waitForLoadState('networkidle');
+		const demo = page.getByTestId('visit-photos');
+		await demo.getByTestId('photo').filter({ hasText: 'The room from the door, before treatment' }).waitFor();
+		expect(await demo.getByTestId('photo').filter({ hasText: 'Microphone at the main seat' }).count()).toBe(1);
+		expect(await pageWidth(page)).toBeLessThanOrEqual(PHONE.width);
+		if (SHOTS) {
+			await page.setViewportSize({ width: 1280, height: 900 });
+			await demo.scrollIntoViewIfNeeded();
+			await page.screenshot({ path: `${SHOTS}/demo-visit-client-1280.png`, fullPage: true });
+		}
 	});
 });
