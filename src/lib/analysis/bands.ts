@@ -1,5 +1,6 @@
 /** Octave and one-third-octave bands: exact frequencies per IEC 61260-1:2014, nominal labels per ISO 266. */
-import { formatHz } from '../format';
+// The one module of $lib/format it needs, so the engine does not load the whole formatter set.
+import { formatHz } from '../format/frequency';
 
 export type BandKind = 'octave' | 'third';
 
