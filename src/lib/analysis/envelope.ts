@@ -1,7 +1,6 @@
 // Analytic signal and energy–time curve: the smooth envelope of an impulse response.
-import type FFT from 'fft.js';
 import { AnalysisInputError } from './errors';
-import { fftOfSize, releaseFft } from './fft';
+import { fftSizeFor, realFftPlan } from './fft';
 
 /** Level given to samples whose energy is zero, instead of −Infinity. */
 export const ENERGY_FLOOR_DB = -200;
@@ -11,35 +10,29 @@ export interface AnalyticSignal {
 	im: Float64Array;
 }
 
-function nextPowerOfTwo(n: number): number {
-	let size = 4; // fft.js needs a power of two; 4 keeps it on its radix-4 path
-	while (size < n) size *= 2;
-	return size;
-}
-
 /**
- * Precomputed FFT tables for analytic signals of inputs up to maxLength samples.
- * The input is zero-padded to the next power of two, so the result equals
- * scipy.signal.hilbert(x, N=fftSize)[:x.length].
+ * Analytic signals of inputs up to maxLength samples, zero-padded to the next power of two (at
+ * least 8), so the result equals scipy.signal.hilbert(x, N=fftSize)[:x.length]. The real part is
+ * x itself; the imaginary part, the discrete Hilbert transform, is a real signal whose spectrum is
+ * −j·X(k) at the positive frequencies, +j·X(k) at the negative ones and 0 at DC and Nyquist —
+ * the same as keeping DC and Nyquist, doubling the positive frequencies and zeroing the negative
+ * ones (Marple, IEEE Trans. Signal Process. 47(9):2600, 1999) — so the engine's real FFT plan does
+ * both transforms.
  */
 export class AnalyticSignalPlan {
 	readonly maxLength: number;
 	readonly fftSize: number;
-	private readonly fft: FFT;
-	private readonly padded: Float64Array;
 	private readonly spectrum: Float64Array;
-	private readonly complexOut: Float64Array;
+	private readonly hilbert: Float64Array;
 
 	constructor(maxLength: number) {
 		if (!Number.isInteger(maxLength) || maxLength < 1) {
 			throw new RangeError(`analytic signal length must be a positive integer, got ${maxLength}`);
 		}
 		this.maxLength = maxLength;
-		this.fftSize = nextPowerOfTwo(maxLength);
-		this.fft = fftOfSize(this.fftSize);
-		this.padded = new Float64Array(this.fftSize);
-		this.spectrum = new Float64Array(2 * this.fftSize);
-		this.complexOut = new Float64Array(2 * this.fftSize);
+		this.fftSize = fftSizeFor(maxLength);
+		this.spectrum = new Float64Array(this.fftSize + 2);
+		this.hilbert = new Float64Array(this.fftSize);
 	}
 
 	/** Fills re/im (length ≥ x.length) with the analytic signal x + j·H{x}. */
@@ -54,22 +47,21 @@ export class AnalyticSignalPlan {
 		}
 		const size = this.fftSize;
 		const half = size / 2;
-		this.padded.fill(0);
-		this.padded.set(x);
-		this.fft.realTransform(this.spectrum, this.padded); // fills bins 0…N/2
-		// Analytic signal (Marple, IEEE Trans. Signal Process. 47(9):2600, 1999): keep DC and
-		// Nyquist, double the positive frequencies, zero the negative ones.
+		const plan = realFftPlan(size);
 		const spectrum = this.spectrum;
+		plan.forward(x, spectrum);
+		// −j·(a + jb) = b − ja at the positive frequencies; DC and Nyquist have no Hilbert part.
+		spectrum[0] = spectrum[1] = 0;
 		for (let k = 1; k < half; k++) {
-			spectrum[2 * k] *= 2;
-			spectrum[2 * k + 1] *= 2;
+			const a = spectrum[2 * k];
+			spectrum[2 * k] = spectrum[2 * k + 1];
+			spectrum[2 * k + 1] = -a;
 		}
-		spectrum.fill(0, 2 * (half + 1));
-		this.fft.inverseTransform(this.complexOut, spectrum);
-		releaseFft(this.fft);
+		spectrum[2 * half] = spectrum[2 * half + 1] = 0;
+		plan.inverse(spectrum, this.hilbert);
 		for (let i = 0; i < n; i++) {
-			re[i] = this.complexOut[2 * i];
-			im[i] = this.complexOut[2 * i + 1];
+			re[i] = x[i];
+			im[i] = this.hilbert[i];
 		}
 	}
 }

@@ -88,12 +88,7 @@ export class RealFftPlan {
 		if (!isPowerOfTwo(size) || size < 8) throw new RangeError(`real FFT size must be a power of two ≥ 8, got ${size}`);
 		this.size = size;
 		this.half = fftOfSize(size / 2);
-		this.twiddle = new Float64Array(size);
-		for (let k = 0; k < size / 2; k++) {
-			const angle = (2 * Math.PI * k) / size;
-			this.twiddle[2 * k] = Math.cos(angle);
-			this.twiddle[2 * k + 1] = Math.sin(angle);
-		}
+		this.twiddle = twiddleTable(size);
 		this.packed = new Float64Array(size);
 	}
 
@@ -162,6 +157,34 @@ export class RealFftPlan {
 	}
 }
 
+/**
+ * cos, sin of 2πk/N for k < N/2, interleaved, cached by size. The even k are read from the
+ * half-size fft.js table, which holds cos and −sin of 2π(2j)/N computed from the very same
+ * double (π·2j/(N/2) and 2π·2j/N differ only by exact powers of two), so every value is the one
+ * Math.cos/Math.sin give directly; only the odd k are computed, half the trigonometric calls
+ * (most of a new plan's cost before its code is optimised).
+ */
+function twiddleTable(size: number): Float64Array {
+	let table = twiddleTables.get(size);
+	if (table) return table;
+	table = new Float64Array(size);
+	const halfTable = (fftOfSize(size / 2) as unknown as { table: Float64Array }).table;
+	for (let k = 0; k < size / 2; k += 2) {
+		table[2 * k] = halfTable[k];
+		table[2 * k + 1] = -halfTable[k + 1];
+	}
+	for (let k = 1; k < size / 2; k += 2) {
+		const angle = (2 * Math.PI * k) / size;
+		table[2 * k] = Math.cos(angle);
+		table[2 * k + 1] = Math.sin(angle);
+	}
+	if (twiddleTables.size >= MAX_KEPT_SIZES) twiddleTables.delete(Math.max(...twiddleTables.keys()));
+	twiddleTables.set(size, table);
+	return table;
+}
+
+const twiddleTables = new Map<number, Float64Array>();
+
 /** Bin k of a real FFT from Z[k] = (zr, zi) and conj Z[m−k] = (cr, ci) of the half-size transform. */
 function writeBin(spectrum: Float64Array, tw: Float64Array, m: number, k: number, zr: number, zi: number, cr: number, ci: number): void {
 	// E = (Z[k] + conj Z[m−k]) / 2,  O = (Z[k] − conj Z[m−k]) / 2j
@@ -197,8 +220,9 @@ export function realFftPlan(size: number): RealFftPlan {
  * computation of the discrete Fourier transform", IEEE Trans. Audio Electroacoust. 18(4), 1970;
  * from memory): with jk = (j² + k² − (k − j)²)/2,
  *   Y[k] = W^(start·k)·W^(k²/2)·Σ_j (x[j]·W^(j²/2))·W^(−(k−j)²/2).
- * Every phase is taken from an exact integer product reduced modulo 2N, so long signals lose no
- * accuracy to large angles. One caller at a time (scratch buffers).
+ * Every phase comes from an exact integer product reduced modulo N or 2N (W^(start·k) read from the
+ * real plan's table), so long signals lose no accuracy to large angles. One caller at a time
+ * (scratch buffers).
  */
 export class ChirpDftPlan {
 	readonly size: number;
@@ -207,6 +231,8 @@ export class ChirpDftPlan {
 	/** FFT size of the convolution. */
 	readonly convolutionSize: number;
 	private readonly fft: FFT;
+	/** cos, sin of 2πm/N for m < N/2 (the real plan's table). */
+	private readonly roots: Float64Array;
 	/** W^(m²/2) for m < max(bins, maxLength), interleaved (re, im). */
 	private readonly chirp: Float64Array;
 	/** FFT of the conjugate chirp laid out for the circular convolution. */
@@ -215,7 +241,7 @@ export class ChirpDftPlan {
 	private readonly transformed: Float64Array;
 
 	constructor(size: number, bins: number, maxLength: number) {
-		if (!(Number.isInteger(size) && size >= 2)) throw new RangeError(`DFT size must be an integer ≥ 2, got ${size}`);
+		if (!(isPowerOfTwo(size) && size >= 8)) throw new RangeError(`DFT size must be a power of two ≥ 8, got ${size}`);
 		if (!(Number.isInteger(bins) && bins >= 1 && bins <= size)) throw new RangeError(`bins must be an integer in 1…${size}, got ${bins}`);
 		if (!(Number.isInteger(maxLength) && maxLength >= 1)) throw new RangeError(`maxLength must be a positive integer, got ${maxLength}`);
 		this.size = size;
@@ -224,6 +250,7 @@ export class ChirpDftPlan {
 		const m = fftSizeFor(bins + maxLength - 1);
 		this.convolutionSize = m;
 		this.fft = fftOfSize(m);
+		this.roots = twiddleTable(size);
 		const count = Math.max(bins, maxLength);
 		this.chirp = new Float64Array(2 * count);
 		for (let j = 0; j < count; j++) {
@@ -268,12 +295,20 @@ export class ChirpDftPlan {
 			work[i + 1] = im;
 		}
 		this.fft.inverseTransform(transformed, work);
-		const twoN = 2 * this.size;
+		const { roots, size } = this;
+		const halfSize = size / 2;
 		for (let k = 0; k < this.bins; k++) {
-			// W^(k²/2 + start·k) = e^(−iπ(k² + 2·start·k)/N): both terms exact integers below 2^53.
-			const angle = (Math.PI * ((k * k + 2 * start * k) % twoN)) / this.size;
-			const c = Math.cos(angle);
-			const s = -Math.sin(angle);
+			// W^(start·k) from the table (start·k is an exact integer below 2^53), times W^(k²/2).
+			let r = (start * k) % size;
+			let sign = 1;
+			if (r >= halfSize) {
+				r -= halfSize;
+				sign = -1;
+			}
+			const wr = sign * roots[2 * r];
+			const wi = -sign * roots[2 * r + 1];
+			const c = chirp[2 * k] * wr - chirp[2 * k + 1] * wi;
+			const s = chirp[2 * k] * wi + chirp[2 * k + 1] * wr;
 			const re = transformed[2 * k];
 			const im = transformed[2 * k + 1];
 			sum[2 * k] += re * c - im * s;

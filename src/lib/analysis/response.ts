@@ -1,8 +1,7 @@
 // Frequency response of an impulse response, fractional-octave smoothing, and a log-spaced
 // decimation of the curve for charts.
-import type FFT from 'fft.js';
 import { AnalysisInputError } from './errors';
-import { fftOfSize, releaseFft } from './fft';
+import { realFftPlan } from './fft';
 
 export const SMOOTHING_FRACTIONS = [1, 3, 6, 12, 24] as const;
 export type SmoothingFraction = (typeof SMOOTHING_FRACTIONS)[number];
@@ -26,18 +25,19 @@ export function isPowerOfTwo(n: number): boolean {
 }
 
 export function nextPowerOfTwo(n: number): number {
-	let size = 4; // fft.js needs a power of two; 4 keeps it on its radix-4 path
+	let size = 4; // the smallest size PowerSpectrumPlan takes
 	while (size < n) size *= 2;
 	return size;
 }
 
-/** Precomputed FFT tables for power spectra of real signals zero-padded to fftSize. */
+/**
+ * Power spectra of real signals zero-padded to fftSize, by the engine's cached real FFT plan of
+ * that size (sizes below its smallest, 8, by the DFT's definition).
+ */
 export class PowerSpectrumPlan {
 	readonly fftSize: number;
 	/** Bins 0…fftSize/2 (DC to Nyquist). */
 	readonly binCount: number;
-	private readonly fft: FFT;
-	private readonly padded: Float64Array;
 	private readonly spectrum: Float64Array;
 
 	constructor(fftSize: number) {
@@ -46,9 +46,7 @@ export class PowerSpectrumPlan {
 		}
 		this.fftSize = fftSize;
 		this.binCount = fftSize / 2 + 1;
-		this.fft = fftOfSize(fftSize);
-		this.padded = new Float64Array(fftSize);
-		this.spectrum = new Float64Array(2 * fftSize);
+		this.spectrum = new Float64Array(fftSize + 2);
 	}
 
 	frequencies(sampleRate: number, binCount = this.binCount): Float64Array {
@@ -62,13 +60,24 @@ export class PowerSpectrumPlan {
 		if (x.length > this.fftSize) throw new RangeError(`signal of ${x.length} samples exceeds FFT size ${this.fftSize}`);
 		this.checkBinCount(binCount);
 		if (out.length < binCount) throw new RangeError('output array is shorter than binCount');
-		this.padded.fill(0);
-		this.padded.set(x);
-		this.fft.realTransform(this.spectrum, this.padded); // fills bins 0…N/2
-		releaseFft(this.fft);
+		const spectrum = this.spectrum;
+		if (this.fftSize >= 8) {
+			realFftPlan(this.fftSize).forward(x, spectrum); // bins 0…N/2
+		} else {
+			for (let k = 0; k < this.binCount; k++) {
+				let re = 0;
+				let im = 0;
+				for (let n = 0; n < x.length; n++) {
+					re += x[n] * Math.cos((2 * Math.PI * k * n) / this.fftSize);
+					im -= x[n] * Math.sin((2 * Math.PI * k * n) / this.fftSize);
+				}
+				spectrum[2 * k] = re;
+				spectrum[2 * k + 1] = im;
+			}
+		}
 		for (let k = 0; k < binCount; k++) {
-			const re = this.spectrum[2 * k];
-			const im = this.spectrum[2 * k + 1];
+			const re = spectrum[2 * k];
+			const im = spectrum[2 * k + 1];
 			out[k] = 10 * Math.log10(Math.max(re * re + im * im, POWER_FLOOR));
 		}
 		return out;

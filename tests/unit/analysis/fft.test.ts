@@ -132,3 +132,17 @@ describe('ChirpDftPlan: the first bins of a long DFT of a short piece', () => {
 		expect(() => new ChirpDftPlan(1024, 2000, 50)).toThrow(RangeError);
 	});
 });
+
+describe('the real plan’s twiddle factors', () => {
+	// Half of them are read from fft.js's half-size table: they must be the very values of
+	// Math.cos/Math.sin at 2πk/N, or results would move by round-off with the table's origin.
+	it.each([8, 1024, 65536])('N = %i: cos and sin of 2πk/N, bit for bit', (size) => {
+		const twiddle = (new RealFftPlan(size) as unknown as { twiddle: Float64Array }).twiddle;
+		let mismatches = 0;
+		for (let k = 0; k < size / 2; k++) {
+			const angle = (2 * Math.PI * k) / size;
+			if (twiddle[2 * k] !== Math.cos(angle) || twiddle[2 * k + 1] !== Math.sin(angle)) mismatches++;
+		}
+		expect(mismatches).toBe(0);
+	});
+});
