@@ -58,6 +58,7 @@ describe('an imperial user', () => {
 		await page.getByLabel('Length').fill(`16' 5"`);
 		await page.getByLabel('Width').fill('12 ft 6 in');
 		await page.getByLabel('Height').fill('96 in');
+		await shots(page, 'imperial-room-form');
 		await page.getByRole('button', { name: 'Create room' }).click();
 		await page.waitForURL(/\/rooms\/\d+$/);
 		const roomUrl = new URL(page.url()).pathname;
@@ -89,6 +90,7 @@ describe('an imperial user', () => {
 		// A bare 42 is feet, taller than the room: refused in feet and inches.
 		await edit.getByRole('button', { name: 'Save position' }).click();
 		expect(await seen(page.getByText('Must lie inside the room (0 – 8′ 0″).'))).toBe(true);
+		await shots(page, 'imperial-position-form');
 		await page.getByRole('form', { name: 'Change position P1' }).getByLabel('Microphone z', { exact: true }).fill('42 in');
 		await page.getByRole('form', { name: 'Change position P1' }).getByRole('button', { name: 'Save position' }).click();
 		await page.getByTestId('positions-plan').waitFor();

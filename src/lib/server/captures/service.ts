@@ -13,7 +13,7 @@ import { conflict, notFound, Problem } from '../problem';
 import { isDuplicateKey } from '../db-errors';
 import * as captureRows from '../queries/captures';
 import type { CaptureRow } from '../queries/captures';
-import { ensurePosition, isPositionOfSession, keepPosition, lockPosition, removeUnkeptPosition } from '../queries/positions';
+import { ensurePosition, isPositionOfSession, isUnkeptPosition, keepPosition, lockPosition, removeUnkeptPosition } from '../queries/positions';
 import { clearAnalysedNotice } from '../queries/sessions';
 import { isSweepOfOrganization } from '../queries/sweeps';
 import { readWavHeader, WavHeaderError, type WavHeader } from './wav-header';
@@ -175,8 +175,13 @@ export async function confirmUpload(scope: Scope, captureId: number, s: Storage 
 		throw e;
 	}
 	await transaction(async (trx) => {
-		// The position first (one lock order): a capture of it has arrived, so it stays.
-		await keepPosition(trx, capture.positionId);
+		// A position this upload made is kept now that a capture of it has arrived. Only then are
+		// locks taken, in the one order (the visit, its position, then the capture), so confirms
+		// into positions that are already kept add no wait to the announcements running beside them.
+		if (await isUnkeptPosition(trx, capture.positionId)) {
+			await captureRows.lockSessionForCaptures(trx, capture.sessionId);
+			await keepPosition(trx, capture.positionId);
+		}
 		if (await captureRows.markUploaded(trx, captureId, header)) await enqueue(trx, 'analyse-capture', { captureId });
 	});
 	return (await captureRows.getCapture(k, captureId))!;

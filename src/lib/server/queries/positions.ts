@@ -49,6 +49,11 @@ export async function ensurePosition(trx: Knex.Transaction, sessionId: number, l
 	return { id: row.id, created: insertedId === row.id };
 }
 
+/** Whether the position is still marked as made for an upload (a plain read: it takes no lock). */
+export async function isUnkeptPosition(k: Knex, id: number): Promise<boolean> {
+	return Boolean((await k('positions').where({ id }).first('made_by_upload'))?.made_by_upload);
+}
+
 /** A capture of the position has arrived (or a person edited it): it stays, whatever its uploads do. */
 export async function keepPosition(k: Knex, id: number): Promise<void> {
 	await k('positions').where({ id, made_by_upload: true }).update({ made_by_upload: false });
