@@ -236,7 +236,9 @@ function analyse(
 	sampleRate: number,
 	options: AnalysisOptions,
 	provenance: Provenance,
-	clock = createStageClock(options.onStage)
+	clock = createStageClock(options.onStage),
+	/** false: no reflections (a pass of which only the bands are kept). */
+	withReflections = true
 ): AnalysisResult {
 	const kind = checkOptions(options);
 	checkSamples(samples, sampleRate);
@@ -298,7 +300,7 @@ function analyse(
 				waterfall: waterfall(full, sampleRate, start)
 			}))
 		: noCurves();
-	const reflections = clock.time('reflections', () => reflectionsOf(full, sampleRate, start, options));
+	const reflections = withReflections ? clock.time('reflections', () => reflectionsOf(full, sampleRate, start, options)) : [];
 	clock.report();
 
 	const inrDb = broadband.inrDb ?? null;
@@ -357,9 +359,10 @@ export function analyseDecodedRecording(
 }
 
 /**
- * analyseRecording in octaves (`octaveOptions` added) and in one-third octaves without curves
- * (`thirdOptions` added), from one decoding and one deconvolution: the same two results as two
- * separate calls, for the cost of one preparation.
+ * analyseRecording in octaves (`octaveOptions` added) and in one-third octaves, from one decoding
+ * and one deconvolution: the same two results as two separate calls, for the cost of one
+ * preparation — but for the thirds' curves and reflections, which are not computed (they do not
+ * depend on the bands: the octave result carries them).
  */
 export function analyseRecordingInOctavesAndThirds(
 	bytes: Uint8Array,
@@ -371,7 +374,7 @@ export function analyseRecordingInOctavesAndThirds(
 	const { impulseResponse, provenance } = prepareRecording(decoded, options, clock);
 	clock.report();
 	const octaves = analyse(impulseResponse, decoded.sampleRate, { ...options, ...octaveOptions, bands: 'octave' }, provenance);
-	const thirds = analyse(impulseResponse, decoded.sampleRate, { ...options, bands: 'third', curves: false }, provenance);
+	const thirds = analyse(impulseResponse, decoded.sampleRate, { ...options, bands: 'third', curves: false }, provenance, undefined, false);
 	return { octaves, thirds };
 }
 

@@ -1,7 +1,9 @@
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { analyseRecording } from '../../../src/lib/analysis/analyse';
+import { analyseRecording, analyseRecordingInOctavesAndThirds } from '../../../src/lib/analysis/analyse';
+import { exponentialNoiseDecay } from '../../../src/lib/analysis/synthetic';
+import { encodeWav } from '../../../src/lib/analysis/wav';
 import { analyseRecordingWithThirds } from '../../../src/lib/analysis/with-thirds';
 
 const fixture = (name: string) => new Uint8Array(readFileSync(fileURLToPath(new URL(`../../../fixtures/${name}`, import.meta.url))));
@@ -18,6 +20,19 @@ describe('analyseRecordingWithThirds: octaves and one-third octaves of one recor
 		expect(both.bands).toEqual(octaves.bands);
 		expect(both.broadband).toEqual(octaves.broadband);
 		expect(both.warnings).toEqual(octaves.warnings);
+		expect(both.reflections).toEqual(octaves.reflections);
+	});
+
+	it('the thirds pass looks for no reflections (they do not depend on the bands), the octave result keeps them', () => {
+		// A direct sound and one reflection at half its amplitude (−6 dB) 139 samples (2.9 ms) after it, over a decaying diffuse field.
+		const ir = exponentialNoiseDecay({ t60S: 0.5, durationS: 1.5, sampleRate: 48000, onsetS: 0.004, noiseDbRePeak: -70, seed: 4 }).map((v) => 0.05 * v);
+		ir[192] += 0.9;
+		ir[192 + 139] += 0.5;
+		const { octaves, thirds } = analyseRecordingInOctavesAndThirds(encodeWav(ir, 48000, '32f'));
+		expect(octaves.reflections.length).toBeGreaterThan(0);
+		expect(octaves.reflections[0].delayMs).toBeCloseTo((139 / 48000) * 1000, 1);
+		expect(thirds.reflections).toEqual([]);
+		expect(thirds.bands).toEqual(analyseRecording(encodeWav(ir, 48000, '32f'), { bands: 'third' }).bands);
 	});
 
 	it('adds the 24 one-third-octave bands 50 Hz – 10 kHz (IEC 61260-1, ISO 266 nominal)', () => {
