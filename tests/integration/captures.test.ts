@@ -277,15 +277,17 @@ describe('object storage down', () => {
 
 	it('during a job: the job is retried and succeeds once storage is back', async () => {
 		const { id } = await uploadCapture(acoustician, tree.sessionId, decayWav({ seed: 32 }));
-		// Leave other queued work aside so the dead store meets our job.
-		await drain((await k('captures').whereIn('status', ['queued']).whereNot({ id }).select('id')).map((r) => r.id));
+		// Put this capture's job first in line (the queue takes the earliest run_after), so the dead
+		// store meets it whatever other files left queued.
+		await k('jobs').whereRaw("JSON_VALUE(payload, '$.captureId') = ?", [id]).update({ run_after: new Date('2000-01-01T00:00:00Z') });
 		const outcome = await runNextJob(k, dead, { owner: 'integration-test' });
+		expect(outcome?.job.payload).toMatchObject({ captureId: id });
 		expect(outcome?.result).toBe('retry');
 		const job = await k('jobs').whereRaw("JSON_VALUE(payload, '$.captureId') = ?", [id]).first();
 		expect(job).toMatchObject({ status: 'queued', attempts: 1 });
 		expect(job.last_error).toMatch(/not reachable/);
 		expect((await k('captures').where({ id }).first()).status).toBe('queued');
-		await k('jobs').where({ id: job.id }).update({ run_after: new Date(Date.now() - 1000) }); // skip the back-off wait
+		await k('jobs').where({ id: job.id }).update({ run_after: new Date('2000-01-01T00:00:00Z') }); // skip the back-off wait, first in line again
 		await drain([id]);
 		expect((await k('captures').where({ id }).first()).status).toBe('analysed');
 		expect(await k('analyses').where({ capture_id: id }).count({ n: '*' }).first()).toEqual({ n: 1 });
