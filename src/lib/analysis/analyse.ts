@@ -257,8 +257,10 @@ function analyse(
 
 	const bank = createBandFilterBank(sampleRate, kind, { extraBands: kind === 'octave' && options.extraOctaves ? extraOctaves(sampleRate, provenance.deconvolution) : [] });
 	const maxLead = Math.max(bank.span.padding, ...bank.filters.map((filter) => filter.padding));
-	// One scratch buffer serves every band; each band's results are kept, its signals dropped.
+	// One scratch buffer serves every band, and one more its decay curve; each band's results are
+	// kept (its decay curve as the chart's points), its signals dropped.
 	const scratch = new Float64Array(bank.scratchLength(samples.length, maxLead));
+	const decayBuffer = new Float64Array(samples.length);
 	// Each filter runs from its lead before the start point (silence before the file if it starts
 	// sooner), so the pre-ringing ahead of the direct sound is kept and counted as early energy.
 	const filtered = (lead: number, end: number, run: (from: number, leadingZeros: number) => Float64Array) => {
@@ -273,7 +275,8 @@ function analyse(
 		analyseDecay(broadbandSquared, sampleRate, {
 			startIndex: spanLead,
 			signalBandwidthHz: bank.span.bandwidthHz,
-			directEnd: direct - start + Math.round(DIRECT_SOUND_WINDOW_S * sampleRate)
+			directEnd: direct - start + Math.round(DIRECT_SOUND_WINDOW_S * sampleRate),
+			decayBuffer
 		})
 	);
 	collectWarnings(null, broadbandAnalysis, warnings);
@@ -286,7 +289,7 @@ function analyse(
 	const bands = bank.filters.map((filter, i) => {
 		const end = Math.max(fullLength, Math.min(samples.length, provenance.completeLengthAt?.(COMPLETE_ABOVE_UPPER_EDGE * filter.band.upperHz) ?? samples.length));
 		const squared = filtered(filter.padding, end, (from, zeros) => bank.filterZeroPhase(i, samples, from, end, scratch, zeros));
-		const analysis = clock.time('decay', () => analyseDecay(squared, sampleRate, { bandwidthHz: filter.bandwidthHz, startIndex: filter.padding }));
+		const analysis = clock.time('decay', () => analyseDecay(squared, sampleRate, { bandwidthHz: filter.bandwidthHz, startIndex: filter.padding, decayBuffer }));
 		collectWarnings(filter.band.nominalHz, analysis, warnings);
 		if (withCurves) decayCurves.push(decayCurve(filter.band.nominalHz, analysis, sampleRate, decayPoints));
 		return bandMetrics(filter.band.nominalHz, filter.band.exactHz, analysis);

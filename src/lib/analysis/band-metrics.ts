@@ -58,6 +58,11 @@ export interface DecayAnalysisOptions {
 	directEnd?: number;
 	/** Bandwidth of the signal, for how steady its noise can look (default: the band's, else half the sample rate). */
 	signalBandwidthHz?: number;
+	/**
+	 * Buffer the decay curve is written into (the result's `decay` is then a view of it, valid
+	 * until the buffer is used again), so the bands of one analysis share one; default a new array.
+	 */
+	decayBuffer?: Float64Array;
 }
 
 /** Squares a signal from `start` on, into a new array. */
@@ -80,7 +85,7 @@ export function analyseDecay(withPreOnset: Float64Array, sampleRate: number, opt
 	const problems: BandProblem[] = [];
 	const slope = noise.lateSlopeDbPerS;
 	const tailEnergy = slope === null ? 0 : exponentialTailEnergy(noise.powerAtCrosspoint, slope, sampleRate);
-	const decay = schroederDecay(squared, noise.crosspointIndex, tailEnergy);
+	const decay = schroederDecay(squared, noise.crosspointIndex, tailEnergy, options.decayBuffer);
 
 	// With the tail compensated, the curve ends at the decay's depth below its start where it meets the noise: the INR.
 	const decayDepthDb = decayLevelDb(decay[decay.length - 1]);

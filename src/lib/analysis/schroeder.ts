@@ -15,11 +15,12 @@ export function exponentialTailEnergy(powerAtTruncation: number, decayDbPerS: nu
 /**
  * Backward-integrated decay over [0, end), normalised to 1 at index 0 (linear energy, not dB:
  * the fits take logarithms only where they need them); `tailEnergy` is added to every value.
+ * Written into the first `end` values of `into` when it is given (and long enough), else into a new array.
  */
-export function schroederDecay(squared: Float64Array, end: number, tailEnergy = 0): Float64Array {
+export function schroederDecay(squared: Float64Array, end: number, tailEnergy = 0, into?: Float64Array): Float64Array {
 	if (!(end >= 1 && end <= squared.length)) throw new RangeError(`truncation index ${end} outside 1…${squared.length}`);
 	if (!(tailEnergy >= 0)) throw new RangeError(`tail energy must be ≥ 0, got ${tailEnergy}`);
-	const curve = new Float64Array(end);
+	const curve = into && into.length >= end ? into.subarray(0, end) : new Float64Array(end);
 	let sum = tailEnergy;
 	for (let i = end - 1; i >= 0; i--) {
 		sum += squared[i];

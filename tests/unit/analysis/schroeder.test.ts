@@ -39,6 +39,17 @@ describe('Schroeder backward integration', () => {
 		expect(curve).toHaveLength(4);
 	});
 
+	it('written into a given buffer: the same values, in its first values, and a short buffer is not used', () => {
+		const squared = new Float64Array([4, 3, 2, 1, 100, 100]);
+		const buffer = new Float64Array(6).fill(-1);
+		const curve = schroederDecay(squared, 4, 0.5, buffer);
+		expect(curve.buffer).toBe(buffer.buffer);
+		expect(Array.from(curve)).toEqual(Array.from(schroederDecay(squared, 4, 0.5)));
+		expect(Array.from(buffer.subarray(4))).toEqual([-1, -1]);
+		const short = new Float64Array(3);
+		expect(schroederDecay(squared, 4, 0, short).buffer).not.toBe(short.buffer);
+	});
+
 	it('the missing tail of P₁e^(−k(t−t₁)) is P₁/k (× fs in sample units), k = |slope|·ln10/10', () => {
 		// T = 1 s: slope −60 dB/s, k = 6·ln10 = 13.8155 /s.
 		expect(exponentialTailEnergy(2, -60, 1000)).toBeCloseTo((2 * 1000) / (6 * Math.LN10), 9);
