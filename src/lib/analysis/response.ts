@@ -248,23 +248,79 @@ export function smoothedLogSpacedCurves(
 ): number[][] {
 	for (const fraction of fractions) checkFraction(fraction);
 	checkCurve(freqHz, powerDb, 'smoothFractionalOctave');
-	const grid = logGrid(freqHz, options, () => {
+	const smoother = new LogSpacedSmoother(freqHz, fractions, options, () => {
 		for (let k = 0; k < powerDb.length; k++) {
 			// Only +∞ makes a smoothed value infinite (−∞ is floored), which logSpacedCurve refuses.
 			if (powerDb[k] === Infinity) throw new AnalysisInputError('invalid_option', `logSpacedCurve: value at index ${k} is not finite`);
 		}
 	});
-	const { prefixHi, prefixLo } = powerPrefixSums(powerDb);
-	const n = freqHz.length;
-	return fractions.map((fraction) => {
-		const halfWidth = 2 ** (1 / (2 * fraction));
-		const smoothedAt = (k: number) => {
-			const low = firstBin(freqHz, 0, freqHz[k] / halfWidth, false);
-			const high = Math.max(k + 1, firstBin(freqHz, k + 1, freqHz[k] * halfWidth, true));
-			return windowMeanDb(prefixHi, prefixLo, low, Math.min(n, high));
-		};
-		return applyLogGrid(grid, smoothedAt);
-	});
+	return smoother.curves(powerPrefixSums(powerDb));
+}
+
+/**
+ * Smoothed log-spaced curves of many spectra on one frequency grid (the waterfall's slices): the
+ * points, the bins they read and each bin's smoothing window are found once; each spectrum then
+ * costs one prefix sum and the windows' means.
+ */
+export class LogSpacedSmoother {
+	readonly freqHz: number[];
+	private readonly grid: LogGrid;
+	private readonly fractions: readonly SmoothingFraction[];
+	/** Per fraction: the distinct bins the points read, and each one's window [low, high). */
+	private readonly windows: { bins: Int32Array; low: Int32Array; high: Int32Array; slot: Int32Array }[];
+
+	constructor(freqHz: Float64Array, fractions: readonly SmoothingFraction[], options: LogSpacedOptions = {}, checkValues?: () => void) {
+		for (const fraction of fractions) checkFraction(fraction);
+		this.grid = logGrid(freqHz, options, checkValues);
+		this.freqHz = this.grid.freqHz;
+		this.fractions = fractions;
+		const n = freqHz.length;
+		// The bins read: each point's own, and the next one where it lies between two.
+		const read: number[] = [];
+		for (let i = 0; i < this.grid.bins.length; i++) {
+			const j = this.grid.bins[i];
+			if (read[read.length - 1] !== j) read.push(j);
+			if (!Number.isNaN(this.grid.weights[i]) && read[read.length - 1] !== j + 1) read.push(j + 1);
+		}
+		const unique = Int32Array.from(new Set(read)).sort();
+		const slot = new Int32Array(n).fill(-1);
+		unique.forEach((bin, index) => (slot[bin] = index));
+		this.windows = fractions.map((fraction) => {
+			const halfWidth = 2 ** (1 / (2 * fraction));
+			const low = new Int32Array(unique.length);
+			const high = new Int32Array(unique.length);
+			unique.forEach((k, index) => {
+				low[index] = firstBin(freqHz, 0, freqHz[k] / halfWidth, false);
+				high[index] = Math.min(n, Math.max(k + 1, firstBin(freqHz, k + 1, freqHz[k] * halfWidth, true)));
+			});
+			return { bins: unique, low, high, slot };
+		});
+	}
+
+	/** The curves of one spectrum given by its power prefix sums (powerPrefixSums or powerPrefixSumsOf). */
+	curves(prefix: { prefixHi: Float64Array; prefixLo: Float64Array }): number[][] {
+		const { prefixHi, prefixLo } = prefix;
+		return this.windows.map(({ bins, low, high, slot }) => {
+			const values = new Float64Array(bins.length);
+			for (let index = 0; index < bins.length; index++) values[index] = windowMeanDb(prefixHi, prefixLo, low[index], high[index]);
+			return applyLogGrid(this.grid, (bin) => values[slot[bin]]);
+		});
+	}
+}
+
+/** Prefix sums in double-double precision of powers given as linear values (floored as dB values are). */
+export function powerPrefixSumsOf(power: Float64Array, length = power.length): { prefixHi: Float64Array; prefixLo: Float64Array } {
+	const prefixHi = new Float64Array(length + 1);
+	const prefixLo = new Float64Array(length + 1);
+	for (let k = 0; k < length; k++) {
+		const value = Math.max(power[k], POWER_FLOOR);
+		const hi = prefixHi[k] + value;
+		const virtual = hi - prefixHi[k];
+		const error = prefixHi[k] - (hi - virtual) + (value - virtual);
+		prefixHi[k + 1] = hi;
+		prefixLo[k + 1] = prefixLo[k] + error;
+	}
+	return { prefixHi, prefixLo };
 }
 
 export interface LogSpacedOptions {
@@ -332,18 +388,8 @@ function logGrid(freqHz: Float64Array, options: LogSpacedOptions, checkValues: (
 }
 
 /** Values at the grid's points, linear in dB between bins, rounded to 0.01 dB. */
-function applyLogGrid(grid: LogGrid, valueAt: (bin: number) => number): number[] {
+function applyLogGrid(grid: LogGrid, at: (bin: number) => number): number[] {
 	const db: number[] = new Array(grid.bins.length);
-	// Neighbouring points often read the same bins.
-	const known = new Map<number, number>();
-	const at = (bin: number) => {
-		let value = known.get(bin);
-		if (value === undefined) {
-			value = valueAt(bin);
-			known.set(bin, value);
-		}
-		return value;
-	};
 	for (let i = 0; i < db.length; i++) {
 		const j = grid.bins[i];
 		const t = grid.weights[i];

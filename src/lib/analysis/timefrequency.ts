@@ -2,15 +2,7 @@
 // time, one slice per start time, for a waterfall chart of the low-frequency decay.
 import { AnalysisInputError } from './errors';
 import { ChirpDftPlan, realFftPlan } from './fft';
-import {
-	applyHalfHannFadeIn,
-	applyHalfHannFadeOut,
-	logSpacedCurve,
-	nextPowerOfTwo,
-	POWER_FLOOR,
-	PowerSpectrumPlan,
-	smoothedLogSpacedCurves
-} from './response';
+import { applyHalfHannFadeIn, applyHalfHannFadeOut, LogSpacedSmoother, nextPowerOfTwo, powerPrefixSumsOf } from './response';
 
 export interface SpectralDecayOptions {
 	/** Start time of the last slice after startIndex (default 300 ms). */
@@ -102,12 +94,14 @@ export function cumulativeSpectralDecay(
 	const binCount = Math.min(fftSize / 2 + 1, Math.ceil((fMaxHz * 2 ** (1 / (2 * SLICE_SMOOTHING)) * fftSize) / sampleRate) + 2);
 	const freqHz = Float64Array.from({ length: binCount }, (_, k) => (k * sampleRate) / fftSize);
 	const offsets = Array.from({ length: slices }, (_, s) => Math.round((s * (lastSliceStart - startIndex)) / (slices - 1)));
-	const powers = slicePowersDb(window, offsets, fadeIn, fftSize, binCount);
+	const powers = slicePowers(window, offsets, fadeIn, fftSize, binCount);
 
 	const timesMs = offsets.map((offset) => Math.round((1e6 * offset) / sampleRate) / 1000);
-	// Smoothed only where the log-spaced points read it: the same numbers as smoothing every bin.
-	const curves = powers.map((powerDb) => smoothedLogSpacedCurves(freqHz, powerDb, [SLICE_SMOOTHING], { fMinHz, fMaxHz, pointsPerOctave })[0]);
-	const grid = logSpacedCurve(freqHz, powers[0], { fMinHz, fMaxHz, pointsPerOctave }).freqHz;
+	// Smoothed only where the log-spaced points read it (the same numbers as smoothing every bin),
+	// the points and windows found once for all the slices.
+	const smoother = new LogSpacedSmoother(freqHz, [SLICE_SMOOTHING], { fMinHz, fMaxHz, pointsPerOctave });
+	const curves = powers.map((power) => smoother.curves(powerPrefixSumsOf(power))[0]);
+	const grid = smoother.freqHz;
 	const reference = Math.max(...curves[0]);
 	const levelsDb = curves.map((curve) =>
 		curve.map((db) => Math.round(Math.max(SPECTRAL_DECAY_FLOOR_DB, db - reference) * 100) / 100)
@@ -116,8 +110,8 @@ export function cumulativeSpectralDecay(
 }
 
 /**
- * 10·lg|X_s(k)|² for k < binCount of each slice s: window[offsets[s]…] with a half-Hann rise over
- * its first `fadeIn` samples, zero-padded to fftSize (floored as PowerSpectrumPlan floors).
+ * |X_s(k)|² for k < binCount of each slice s: window[offsets[s]…] with a half-Hann rise over
+ * its first `fadeIn` samples, zero-padded to fftSize.
  *
  * Slices only lose samples at their start, so the transform of the unfaded part of slice s is that
  * of slice s + 1 plus the DFT of the samples between their starts: one FFT for the last slice, then
@@ -125,7 +119,7 @@ export function cumulativeSpectralDecay(
  * (ChirpDftPlan). All in one time origin (the window's start), so the pieces add up; |X| does not
  * depend on the origin, so these are the magnitudes of one FFT per slice, to round-off.
  */
-function slicePowersDb(window: Float64Array, offsets: number[], fadeIn: number, fftSize: number, binCount: number): Float64Array[] {
+function slicePowers(window: Float64Array, offsets: number[], fadeIn: number, fftSize: number, binCount: number): Float64Array[] {
 	const last = offsets.length - 1;
 	const rise = new Float64Array(fadeIn);
 	// The weights applyHalfHannFadeIn gives the first fadeIn samples.
@@ -137,14 +131,6 @@ function slicePowersDb(window: Float64Array, offsets: number[], fadeIn: number, 
 	// ranges or widely spaced slices (options the charts do not use), which take one FFT per slice.
 	if (4 * pieces.convolutionSize > fftSize) return slicePowersByFft(window, offsets, fadeIn, fftSize, binCount);
 
-	const toDb = (spectrum: Float64Array, out: Float64Array) => {
-		for (let k = 0; k < binCount; k++) {
-			const re = spectrum[2 * k];
-			const im = spectrum[2 * k + 1];
-			out[k] = 10 * Math.log10(Math.max(re * re + im * im, POWER_FLOOR));
-		}
-		return out;
-	};
 	// tail: the DFT of window[offsets[s] + fadeIn…], the unfaded part of slice s.
 	const tail = new Float64Array(2 * binCount);
 	const tailStart = offsets[last] + fadeIn;
@@ -168,19 +154,28 @@ function slicePowersDb(window: Float64Array, offsets: number[], fadeIn: number, 
 		slice.set(tail);
 		for (let k = 0; k < fadeIn; k++) faded[k] = window[start + k] * rise[k];
 		pieces.addTo(faded, start, slice);
-		powers[s] = toDb(slice, new Float64Array(binCount));
+		powers[s] = powerOf(slice, binCount);
 	}
 	return powers;
 }
 
+/** |X(k)|² of the first `binCount` bins of an interleaved spectrum. */
+function powerOf(spectrum: Float64Array, binCount: number): Float64Array {
+	const power = new Float64Array(binCount);
+	for (let k = 0; k < binCount; k++) power[k] = spectrum[2 * k] * spectrum[2 * k] + spectrum[2 * k + 1] * spectrum[2 * k + 1];
+	return power;
+}
+
 /** The same by one FFT per slice. */
 function slicePowersByFft(window: Float64Array, offsets: number[], fadeIn: number, fftSize: number, binCount: number): Float64Array[] {
-	const plan = new PowerSpectrumPlan(fftSize);
+	const plan = realFftPlan(fftSize);
 	const buffer = new Float64Array(window.length);
+	const spectrum = new Float64Array(fftSize + 2);
 	return offsets.map((offset) => {
 		const slice = buffer.subarray(0, window.length - offset);
 		slice.set(window.subarray(offset));
 		applyHalfHannFadeIn(slice, fadeIn);
-		return plan.powerDb(slice, binCount);
+		plan.forward(slice, spectrum);
+		return powerOf(spectrum, binCount);
 	});
 }
