@@ -67,8 +67,25 @@ export interface ResponseTable {
 	rows: CsvCell[][];
 }
 
-/** Levels at the one-third-octave centres the series span, read off the drawn curves. */
+// Tables already read off curves, by the curves' own arrays: a results page draws the same cached
+// curves for every request, and a chart switched back to a smoothing draws its curves again.
+const madeTables = new WeakMap<readonly number[], { series: ResponseSeries[]; table: ResponseTable }[]>();
+const sameCurves = (a: readonly ResponseSeries[], b: readonly ResponseSeries[]) =>
+	a.length === b.length && a.every((s, i) => s.label === b[i].label && s.freqHz === b[i].freqHz && s.db === b[i].db);
+
+/** Levels at the one-third-octave centres the series span, read off the drawn curves (the curves' arrays must not change afterwards). */
 export function responseTable(series: readonly ResponseSeries[]): ResponseTable {
+	const key = series[0]?.db;
+	if (!key) return readTable(series);
+	const made = madeTables.get(key) ?? [];
+	const hit = made.find((m) => sameCurves(m.series, series));
+	if (hit) return hit.table;
+	const table = readTable(series);
+	madeTables.set(key, [...made.slice(-7), { series: series.map((s) => ({ ...s })), table }]);
+	return table;
+}
+
+function readTable(series: readonly ResponseSeries[]): ResponseTable {
 	const headers = ['Frequency (Hz)', ...series.map((s) => `${s.label} (dB)`)];
 	const all = series.flatMap((s) => s.freqHz);
 	if (all.length === 0) return { headers, rows: [] };

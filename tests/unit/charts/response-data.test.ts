@@ -62,6 +62,17 @@ describe('responseTable', () => {
 	it('has no rows without data', () => {
 		expect(responseTable([]).rows).toEqual([]);
 	});
+
+	it('reads the same curves once, and other curves or labels afresh', () => {
+		const first = responseTable([falling, narrow]);
+		expect(responseTable([{ ...falling }, { ...narrow }])).toBe(first);
+		const other = responseTable([falling, { ...narrow, db: [10, 0] }]);
+		expect(other).not.toBe(first);
+		expect(other.rows.find((r) => r[0] === 100)![2]).toBeCloseTo(10, 6);
+		expect(responseTable([{ ...falling, label: 'Pos 1 again' }, narrow]).headers[1]).toBe('Pos 1 again (dB)');
+		expect(responseTable([narrow, falling]).headers).toEqual(['Frequency (Hz)', 'Pos 2, "mic" (dB)', 'Pos 1 (dB)']);
+		expect(responseTable([falling, narrow])).toBe(first);
+	});
 });
 
 describe('responsePlotData and responseCsvRows', () => {

@@ -68,6 +68,8 @@ export interface AnalysedCaptureRow {
 	analysisId: number;
 	engineVersion: string;
 	analysedAt: string;
+	/** Its quality warnings, where they were read with it. */
+	warnings?: AnalysisWarning[];
 }
 
 /** The analysed captures of a visit without their stored JSON, newest first within each position label. */
@@ -85,7 +87,7 @@ export async function analysedCaptureRowsOfSessions(k: Knex, sessionIds: number[
 		.where('c.status', 'analysed')
 		.orderBy('po.label')
 		.orderBy('c.id', 'desc')
-		.select('c.id', 'c.session_id', 'po.label', 'po.source_label', 'po.mic_label', 'a.id as analysis_id', 'a.engine_version', 'a.created_at');
+		.select('c.id', 'c.session_id', 'po.label', 'po.source_label', 'po.mic_label', 'a.id as analysis_id', 'a.engine_version', 'a.created_at', 'a.warnings');
 	return rows.map((r) => ({
 		sessionId: r.session_id,
 		captureId: r.id,
@@ -94,7 +96,8 @@ export async function analysedCaptureRowsOfSessions(k: Knex, sessionIds: number[
 		micLabel: r.mic_label ?? null,
 		analysisId: r.analysis_id,
 		engineVersion: r.engine_version,
-		analysedAt: r.created_at instanceof Date ? r.created_at.toISOString() : String(r.created_at)
+		analysedAt: r.created_at instanceof Date ? r.created_at.toISOString() : String(r.created_at),
+		warnings: readJson<AnalysisWarning[]>(r.warnings)
 	}));
 }
 
@@ -116,13 +119,6 @@ export async function responseInputsOfAnalyses(
 			{ metrics: readJson<StoredMetrics>(r.metrics), curves: { frequencyResponse: readJson(r.response), frequencyResponseSmoothed: readJson(r.smoothed) } }
 		])
 	);
-}
-
-/** The quality warnings of these captures' stored results (their metrics stay in the database). */
-export async function analysisWarnings(k: Knex, captureIds: number[]): Promise<Map<number, AnalysisWarning[]>> {
-	if (captureIds.length === 0) return new Map();
-	const rows = await k('analyses').whereIn('capture_id', captureIds).select('capture_id', 'warnings');
-	return new Map(rows.map((r) => [r.capture_id as number, readJson<AnalysisWarning[]>(r.warnings)]));
 }
 
 /** Names the stored result of a capture: a re-analysis replaces the row, so the name changes with it. */

@@ -66,17 +66,31 @@ function summaryOf(r: { engine_version: string; warnings: unknown; broadband: un
 	};
 }
 
-/** A visit's captures with their analysis summaries (as analysisSummaries reads them), in one query. */
-export async function listCapturesWithSummaries(k: Knex, sessionId: number): Promise<{ capture: CaptureRow; summary: AnalysisSummary | undefined }[]> {
+/** A capture of a visit with its analysis: the summary lists show, and what names its stored result. */
+export interface ListedCapture {
+	capture: CaptureRow;
+	summary: AnalysisSummary | undefined;
+	/** The position's loudspeaker and microphone labels. */
+	sourceLabel: string | null;
+	micLabel: string | null;
+	/** The stored result's row (a re-analysis replaces it), when there is one. */
+	analysis: { id: number; engineVersion: string; createdAt: Date | string } | null;
+}
+
+/** A visit's captures with their analysis summaries (as analysisSummaries reads them), in one query, by position label then id. */
+export async function listCapturesWithSummaries(k: Knex, sessionId: number): Promise<ListedCapture[]> {
 	const rows = await base(k)
 		.leftJoin('analyses as a', 'a.capture_id', 'c.id')
 		.where('c.session_id', sessionId)
 		.orderBy('po.label')
 		.orderBy('c.id')
-		.select(columns, 'a.id as analysis_id', ...summaryColumns(k));
-	return rows.map(({ analysis_id, engine_version, warnings, broadband, peak_to_noise_db, ...capture }) => ({
+		.select(columns, 'po.source_label', 'po.mic_label', 'a.id as analysis_id', 'a.created_at as analysed_at', ...summaryColumns(k));
+	return rows.map(({ analysis_id, analysed_at, source_label, mic_label, engine_version, warnings, broadband, peak_to_noise_db, ...capture }) => ({
 		capture: capture as CaptureRow,
-		summary: analysis_id === null ? undefined : summaryOf({ engine_version, warnings, broadband, peak_to_noise_db })
+		summary: analysis_id === null ? undefined : summaryOf({ engine_version, warnings, broadband, peak_to_noise_db }),
+		sourceLabel: source_label ?? null,
+		micLabel: mic_label ?? null,
+		analysis: analysis_id === null ? null : { id: analysis_id, engineVersion: engine_version, createdAt: analysed_at }
 	}));
 }
 

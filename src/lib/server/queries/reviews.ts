@@ -2,6 +2,7 @@ import type { Knex } from 'knex';
 import type { ProblemBandView } from '../../results/types';
 import type { ProjectRow } from '../../types/projects';
 import { roomColumns, sessionCount, type RoomRow } from './rooms';
+import { toIsoDate } from './sessions';
 
 export interface ComparisonRow {
 	id: number;
@@ -45,25 +46,38 @@ const prefixed = (prefix: string, columns: Record<string, string>, table = '') =
 const unprefixed = (prefix: string, r: Record<string, unknown>) =>
 	Object.fromEntries(Object.entries(r).filter(([key]) => key.startsWith(prefix)).map(([key, v]) => [key.slice(prefix.length), v]));
 
-/** A comparison with its room and project, as its pages head themselves, in one query. */
-export async function getComparisonHeader(
-	k: Knex,
-	id: number
-): Promise<{ comparison: ComparisonRow; room: RoomRow; project: Pick<ProjectRow, 'id' | 'organizationId' | 'organizationName' | 'name' | 'clientName'> } | undefined> {
+/** A comparison with its room, project and the condition and date of its two visits, as its pages head themselves, in one query. */
+export async function getComparisonHeader(k: Knex, id: number): Promise<
+	| {
+			comparison: ComparisonRow;
+			room: RoomRow;
+			project: Pick<ProjectRow, 'id' | 'organizationId' | 'organizationName' | 'name' | 'clientName'>;
+			visits: { sessionId: number; conditionLabel: string; measuredOn: string }[];
+	  }
+	| undefined
+> {
 	const r = await k('comparisons as cm')
 		.join('rooms as r', 'r.id', 'cm.room_id')
 		.join('projects as p', 'p.id', 'r.project_id')
 		.join('organizations as o', 'o.id', 'p.organization_id')
+		.join('sessions as sb', 'sb.id', 'cm.baseline_session_id')
+		.join('sessions as st', 'st.id', 'cm.treated_session_id')
 		.where('cm.id', id)
 		.first(prefixed('cm_', comparisonColumns, 'cm.'))
 		.select(prefixed('r_', roomColumns))
 		.select(sessionCount(k))
-		.select({ p_id: 'p.id', p_organizationId: 'p.organization_id', p_organizationName: 'o.name', p_name: 'p.name', p_clientName: 'p.client_name' });
+		.select({ p_id: 'p.id', p_organizationId: 'p.organization_id', p_organizationName: 'o.name', p_name: 'p.name', p_clientName: 'p.client_name' })
+		.select({ sb_condition: 'sb.condition_label', sb_measuredOn: 'sb.measured_on', st_condition: 'st.condition_label', st_measuredOn: 'st.measured_on' });
 	if (!r) return undefined;
+	const comparison = shapeComparison(unprefixed('cm_', r));
 	return {
-		comparison: shapeComparison(unprefixed('cm_', r)),
+		comparison,
 		room: { ...(unprefixed('r_', r) as unknown as RoomRow), sessionCount: Number(r.sessionCount) },
-		project: unprefixed('p_', r) as unknown as Pick<ProjectRow, 'id' | 'organizationId' | 'organizationName' | 'name' | 'clientName'>
+		project: unprefixed('p_', r) as unknown as Pick<ProjectRow, 'id' | 'organizationId' | 'organizationName' | 'name' | 'clientName'>,
+		visits: [
+			{ sessionId: comparison.baselineSessionId, conditionLabel: r.sb_condition, measuredOn: toIsoDate(r.sb_measuredOn) },
+			{ sessionId: comparison.treatedSessionId, conditionLabel: r.st_condition, measuredOn: toIsoDate(r.st_measuredOn) }
+		]
 	};
 }
 

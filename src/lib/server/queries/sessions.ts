@@ -20,7 +20,8 @@ function counts(k: Knex) {
 	];
 }
 
-const toIsoDate = (d: Date | string) => (d instanceof Date ? d.toISOString().slice(0, 10) : String(d).slice(0, 10));
+/** A DATE column as YYYY-MM-DD. */
+export const toIsoDate = (d: Date | string) => (d instanceof Date ? d.toISOString().slice(0, 10) : String(d).slice(0, 10));
 
 function shape(r: Record<string, unknown>): SessionRow {
 	return {

@@ -6,7 +6,6 @@ import { db } from '../db';
 import { getComparisonHeader, listProblemBands } from '../queries/reviews';
 import { hasSharedPlan } from '../queries/plans';
 import type { RoomRow } from '../queries/rooms';
-import { analysisWarnings } from '../queries/analyses';
 import { comparisonViewOf, loadComparisonResults } from './load';
 import { Lru } from './cache';
 import type { Scope } from '../auth/access';
@@ -39,23 +38,21 @@ async function reportPlanOf(k: Knex, scope: Scope, room: RoomRow, organizationId
 
 /** The comparison row, refused to a client while it is a draft (a client never learns that a draft exists). */
 async function reachableComparison(k: Knex, scope: Scope, comparisonId: number) {
-	const { comparison, room, project } = (await getComparisonHeader(k, comparisonId))!;
+	const { comparison, room, project, visits } = (await getComparisonHeader(k, comparisonId))!;
 	const internal = roleAllows(scope.role, 'project:internal');
 	if (!internal && !comparison.publishedAt) error(404, 'Not found.');
-	return { comparison, room, project, internal };
+	return { comparison, room, project, visits, internal };
 }
 
 /** The whole comparison with everything its pages show: for the PDF, the exports and the comparison JSON. */
 export async function loadComparisonDocument(scope: Scope, comparisonId: number, options: { withPlan?: boolean } = {}) {
 	const k = db();
-	const { comparison, room, project, internal } = await reachableComparison(k, scope, comparisonId);
-	const [{ model, tag }, problemBands] = await Promise.all([loadComparisonResults(k, comparison, room), listProblemBands(k, room.id)]);
+	const { comparison, room, project, visits, internal } = await reachableComparison(k, scope, comparisonId);
+	const [{ model, tag, warnings }, problemBands] = await Promise.all([loadComparisonResults(k, comparison, { room, visits }), listProblemBands(k, room.id)]);
 	const plan = options.withPlan ? await reportPlanOf(k, scope, room, project.organizationId, model) : null;
 	const showQuality = internal || comparison.shareQualityNotes;
 	let qualityNotes: { positionLabel: string; condition: string; messages: string[] }[] = [];
 	if (showQuality) {
-		const ids = [...model.baseline.positions, ...model.treated.positions].map((p) => p.captureId);
-		const warnings = await analysisWarnings(k, ids);
 		qualityNotes = [
 			...model.baseline.positions.map((p) => ({ p, condition: model.baseline.conditionLabel })),
 			...model.treated.positions.map((p) => ({ p, condition: model.treated.conditionLabel }))
@@ -98,16 +95,16 @@ export async function loadComparisonPage(scope: Scope, comparisonId: number, opt
 /** The comparison's averaged responses at one smoothing, with the tag of the results they come from. */
 export async function comparisonResponsesOf(scope: Scope, comparisonId: number, smoothing: SmoothingKey): Promise<{ tag: string; answer: () => ComparisonResponses }> {
 	const k = db();
-	const { comparison, room } = await reachableComparison(k, scope, comparisonId);
-	const { model, tag } = await loadComparisonResults(k, comparison, room);
+	const { comparison, room, visits } = await reachableComparison(k, scope, comparisonId);
+	const { model, tag } = await loadComparisonResults(k, comparison, { room, visits });
 	return { tag, answer: () => comparisonResponses(model, smoothing) };
 }
 
 /** The comparison's band-by-band tables of one kind, with the tag of the results they come from. */
 export async function comparisonBandsOf(scope: Scope, comparisonId: number, bandKind: BandKind): Promise<{ tag: string; answer: () => ComparisonBands }> {
 	const k = db();
-	const { comparison, room } = await reachableComparison(k, scope, comparisonId);
-	const { model, tag } = await loadComparisonResults(k, comparison, room);
+	const { comparison, room, visits } = await reachableComparison(k, scope, comparisonId);
+	const { model, tag } = await loadComparisonResults(k, comparison, { room, visits });
 	const bands = comparisonBands(model, bandKind);
 	if (!bands) throw notFound('This comparison has no one-third-octave bands: a visit was analysed without them.');
 	return { tag, answer: () => bands };

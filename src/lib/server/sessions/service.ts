@@ -10,11 +10,12 @@ import { listProblemBands } from '../queries/reviews';
 import { getRoom } from '../queries/rooms';
 import { getSession, getVisitHeader } from '../queries/sessions';
 import { listSweeps } from '../queries/sweeps';
-import { loadSessionResults, loadSessionSummary, loadVisitResultsView } from '../results/load';
+import { analysedRowsOf, loadSessionResults, loadSessionSummary, loadVisitResultsView } from '../results/load';
+import { listCapturesWithSummaries } from '../queries/captures';
 import { visitBands, visitResponses, type VisitBands, type VisitResponses } from '../../results/drawn';
 import type { BandKind } from '../../analysis/bands';
 import type { SmoothingKey } from '../../analysis/types';
-import { sessionCaptureViews } from '../captures/views';
+import { toView } from '../captures/views';
 import { roleAllows } from '../../roles';
 
 /** The visit page: captures, results and test signals only for the roles that may see or use them. */
@@ -23,9 +24,14 @@ export async function visitPage(scope: Scope, sessionId: number) {
 	const { session, room, project } = (await getVisitHeader(k, sessionId))!;
 	const internal = roleAllows(scope.role, 'project:internal');
 	const upload = roleAllows(scope.role, 'capture:write');
-	const [captures, summary, problemBands, sweeps, positions] = await Promise.all([
-		internal ? sessionCaptureViews(k, sessionId) : [],
-		internal ? loadVisitResultsView(k, sessionId, { sessionId, conditionLabel: session.conditionLabel, measuredOn: session.measuredOn }) : null,
+	// One listing of the captures for their list and for the results.
+	const results = async () => {
+		const listing = await listCapturesWithSummaries(k, sessionId);
+		const meta = { sessionId, conditionLabel: session.conditionLabel, measuredOn: session.measuredOn };
+		return { captures: listing.map((r) => toView(r.capture, r.summary)), summary: await loadVisitResultsView(k, sessionId, { meta, rows: analysedRowsOf(listing) }) };
+	};
+	const [{ captures, summary }, problemBands, sweeps, positions] = await Promise.all([
+		internal ? results() : { captures: [], summary: null },
 		internal ? listProblemBands(k, room.id) : [],
 		upload ? listSweeps(k, scope.organizationId) : [],
 		listPositions(k, sessionId)
