@@ -14,7 +14,8 @@
  *    against SciPy's; the lower bound (one FFT of the file plus ten zero-phase band passes in
  *    numpy/scipy) beside it; the engine's peak memory beyond the decoded file, in bytes per sample.
  *    The engine is timed as the worker runs it (with chart curves) and as the command line does
- *    (without), each in its own fresh process.
+ *    (without), each in its own fresh process, and once more with curves after the worker's
+ *    warm-up (what a worker's first capture costs).
  * 2. Whole process: `npx tsx scripts/analyze.ts …` against `python3 tests/reference/pipeline.py …`,
  *    CPU time (user + system) and wall time.
  * Engine and SciPy runs alternate, and each ratio is the median over the rounds of the pairs, so a
@@ -130,10 +131,14 @@ function cpuMs(work: () => void): number {
 	return (used.user + used.system) / 1000;
 }
 
-/** Child process: one fresh engine, timed on its first call and on the next ones, with or without curves. */
-async function engineChild(file: string, bands: 'octave' | 'third', curves: boolean, reference: string | undefined): Promise<void> {
+/**
+ * Child process: one fresh engine, timed on its first call and on the next ones, with or without
+ * curves; `warmed`: after the worker's warm-up (src/lib/server/jobs/warm-up.ts), as a worker's first capture.
+ */
+async function engineChild(file: string, bands: 'octave' | 'third', curves: boolean, reference: string | undefined, warmed = false): Promise<void> {
 	const { analyseDecodedRecording } = await import('../src/lib/analysis/analyse');
 	const { decodeWav } = await import('../src/lib/analysis/wav');
+	if (warmed) (await import('../src/lib/server/jobs/warm-up')).warmUpEngine();
 	// Decoding is left out of the time, as SciPy's file reading is.
 	const decoded = decodeWav(readFileSync(file));
 	const played = reference ? decodeWav(readFileSync(reference)) : null;
@@ -155,8 +160,9 @@ async function engineChild(file: string, bands: 'octave' | 'third', curves: bool
 }
 
 /** Engine timing in a fresh process (the first call of that process is the cold one). */
-function engineInProcess(c: Case, curves: boolean): EngineTiming {
-	const args = ['--import', 'tsx', self, '--engine-child', c.file, c.bands, curves ? 'curves' : 'plain', ...(c.reference ? [c.reference] : [])];
+function engineInProcess(c: Case, curves: boolean, warmed = false): EngineTiming {
+	const mode = warmed ? 'warmed' : curves ? 'curves' : 'plain';
+	const args = ['--import', 'tsx', self, '--engine-child', c.file, c.bands, mode, ...(c.reference ? [c.reference] : [])];
 	const child = spawnSync(process.execPath, args, { cwd: root, encoding: 'utf8', maxBuffer: 1 << 20 });
 	if (child.status !== 0) throw new Error(`engine child failed: ${child.stderr}`);
 	return JSON.parse(child.stdout) as EngineTiming;
@@ -195,12 +201,13 @@ async function main(argv: string[]): Promise<void> {
 	console.log(`engine vs SciPy (${PYTHON}), ${rounds} interleaved rounds; load average at start ${load()} (1, 5, 15 min)`);
 
 	for (const c of cases) {
-		const runs: { engine: EngineTiming; plain: EngineTiming; scipy: ScipyTiming }[] = [];
+		const runs: { engine: EngineTiming; plain: EngineTiming; warmed: EngineTiming; scipy: ScipyTiming }[] = [];
 		for (let round = 0; round < rounds; round++) {
 			const scipy = scipyInProcess(c);
 			const engine = engineInProcess(c, true);
 			const plain = engineInProcess(c, false);
-			runs.push({ engine, plain, scipy });
+			const warmed = engineInProcess(c, true, true);
+			runs.push({ engine, plain, warmed, scipy });
 		}
 		const m = (f: (pair: (typeof runs)[number]) => number) => median(runs.map(f));
 		console.log(`\n${c.label} (${runs[0].engine.samples} samples)`);
@@ -211,6 +218,9 @@ async function main(argv: string[]): Promise<void> {
 		console.log(
 			`    ratio first ${mark(m((p) => p.engine.coldMs / p.scipy.coldMs), c.goals.cold)}, warm ${mark(m((p) => p.engine.warmMs / p.scipy.warmMs), c.goals.warm)};` +
 				` first call / lower bound (${m((p) => p.scipy.lowerBoundMs).toFixed(0)} ms) ${mark(m((p) => p.engine.coldMs / p.scipy.lowerBoundMs), 4)}`
+		);
+		console.log(
+			`    a worker's first capture (after its warm-up at start): ${m((p) => p.warmed.coldMs).toFixed(0)} ms, ratio to SciPy's first call ${mark(m((p) => p.warmed.coldMs / p.scipy.coldMs), c.goals.cold)}`
 		);
 		console.log(
 			`  in-process CPU, no curves (the command line): first ${m((p) => p.plain.coldMs).toFixed(0)} ms, then ${m((p) => p.plain.warmMs).toFixed(0)} ms;` +
@@ -235,7 +245,7 @@ async function main(argv: string[]): Promise<void> {
 
 const argv = process.argv.slice(2);
 if (argv[0] === '--engine-child') {
-	await engineChild(argv[1], argv[2] as 'octave' | 'third', argv[3] === 'curves', argv[4]);
+	await engineChild(argv[1], argv[2] as 'octave' | 'third', argv[3] !== 'plain', argv[4], argv[3] === 'warmed');
 } else {
 	await main(argv);
 }
