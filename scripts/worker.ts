@@ -10,6 +10,7 @@ import { createStorage } from '../src/lib/server/storage';
 import { runNextJob } from '../src/lib/server/jobs/runner';
 import { removeAbandonedUploads } from '../src/lib/server/captures/service';
 import { removeOrphanObjects } from '../src/lib/server/housekeeping/orphan-objects';
+import { warmUpEngine } from '../src/lib/server/jobs/warm-up';
 
 const HOUSEKEEPING_MS = 10 * 60_000;
 
@@ -32,6 +33,8 @@ async function main() {
 	const transport = createTransport();
 	const from = config().MAIL_FROM;
 	log('started');
+	// Before the first claim, so the first capture is analysed at the warm speed (see warm-up.ts).
+	log(`engine warmed up (${warmUpEngine().cpuMs.toFixed(0)} ms CPU)`);
 	let lastHousekeeping = 0;
 	while (!stopping) {
 		let busy = false;
