@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { launch, newPage, signIn } from './browser';
+import { launch, newPage, seen, signIn } from './browser';
 
 // On a phone (390 px, a common width) the pages fit the screen: wide charts and band tables
 // scroll inside their own box, never the page (common practice, no source).
@@ -51,5 +51,104 @@ describe('pages at phone width', () => {
 		await page.goto(page.url().replace('/comparisons/', '/reports/'));
 		const report = await overflow(page);
 		expect(report.width, report.culprits.join(', ')).toBeLessThanOrEqual(PHONE.width);
+	});
+});
+
+/** The visible controls inside `selector` that reach beyond the window's left or right edge. */
+async function cutOff(page: Page, selector: string): Promise<string[]> {
+	return page.evaluate((sel) => {
+		const root = document.querySelector(sel);
+		if (!root) return [`${sel} not found`];
+		return [...root.querySelectorAll<HTMLElement>('input:not([type="hidden"]), select, button, textarea')]
+			.filter((el) => el.offsetParent !== null)
+			.filter((el) => {
+				const r = el.getBoundingClientRect();
+				return r.left < -1 || r.right > window.innerWidth + 1;
+			})
+			.map((el) => `${el.tagName.toLowerCase()}[${el.getAttribute('name') ?? el.textContent?.trim() ?? ''}] ${Math.round(el.getBoundingClientRect().left)}–${Math.round(el.getBoundingClientRect().right)} px`);
+	}, selector);
+}
+
+describe('forms at phone and desktop width', () => {
+	const DESKTOP = { width: 1280, height: 900 };
+
+	async function demoVisit(page: Page): Promise<{ room: string }> {
+		await page.goto('/projects');
+		await page.getByRole('link', { name: 'Lindqvist listening room' }).click();
+		await page.getByRole('link', { name: 'Attic listening room' }).click();
+		await page.waitForURL(/\/rooms\/\d+$/);
+		const room = page.url();
+		await page.getByRole('link', { name: '2026-10-06' }).first().click();
+		await page.waitForURL(/\/sessions\/\d+$/);
+		await page.waitForLoadState('networkidle');
+		return { room };
+	}
+
+	for (const viewport of [PHONE, DESKTOP]) {
+		it(`acoustician at ${viewport.width} px: a position's change form and the finish menus lie within the window`, async () => {
+			const page = await newPage(browser, viewport);
+			await signIn(page, 'acoustician@fenwick-hale.test');
+			const { room } = await demoVisit(page);
+			await page.getByTestId('position').first().getByRole('button', { name: 'Change' }).click();
+			const edit = page.getByRole('form', { name: /^Change position / });
+			await edit.waitFor();
+			await page.screenshot({ path: `/tmp/position-edit-${viewport.width}.png`, fullPage: true });
+			expect(await cutOff(page, 'form[aria-label^="Change position "]')).toEqual([]);
+			// Its inputs take a usable width, not a sliver.
+			expect((await edit.getByLabel('Label', { exact: true }).boundingBox())?.width).toBeGreaterThan(200);
+			expect((await overflow(page)).width).toBeLessThanOrEqual(viewport.width);
+
+			// The plan page's finish menus: each whole, with its button, inside the window (the
+			// surfaces table scrolls in its own box; scrolled to the menu, the menu shows whole).
+			await page.goto(`${room}/plan`);
+			await page.waitForLoadState('networkidle');
+			const menus = page.getByRole('combobox', { name: /^Finish of the / });
+			expect(await menus.count()).toBe(6);
+			for (let i = 0; i < 6; i++) {
+				const menu = menus.nth(i);
+				await menu.scrollIntoViewIfNeeded();
+				const box = (await menu.boundingBox())!;
+				const set = (await menu.locator('xpath=following-sibling::button').boundingBox())!;
+				expect(box.x, `menu ${i}`).toBeGreaterThanOrEqual(0);
+				expect(set.x + set.width, `menu ${i}`).toBeLessThanOrEqual(viewport.width);
+				expect(box.width, `menu ${i}`).toBeGreaterThan(150);
+				// The chosen finish's name is not cut inside the menu.
+				expect(await menu.evaluate((el: HTMLSelectElement) => el.scrollWidth <= el.clientWidth + 1), `menu ${i}`).toBe(true);
+			}
+			await menus.first().scrollIntoViewIfNeeded();
+			await page.screenshot({ path: `/tmp/finish-menus-${viewport.width}.png` });
+			expect((await overflow(page)).width).toBeLessThanOrEqual(viewport.width);
+		});
+	}
+
+	it('acoustician: the new-position panel closes after an add and keeps what was typed after a refusal', async () => {
+		const page = await newPage(browser, PHONE);
+		page.on('dialog', (d) => void d.accept());
+		await signIn(page, 'acoustician@fenwick-hale.test');
+		await demoVisit(page);
+		const label = `N${Date.now() % 100000}`;
+		await page.getByRole('button', { name: 'New position' }).click();
+		const panel = page.getByRole('form').filter({ has: page.getByRole('button', { name: 'Add position' }) });
+		await panel.getByLabel('Label', { exact: true }).fill(label);
+		await panel.getByLabel('Loudspeaker x', { exact: true }).fill('999');
+		await panel.getByRole('button', { name: 'Add position' }).click();
+		expect(await seen(page.getByText(/Must lie inside the room/))).toBe(true);
+		expect(await panel.getByLabel('Label', { exact: true }).inputValue()).toBe(label);
+		expect(await panel.getByLabel('Loudspeaker x', { exact: true }).inputValue()).toBe('999');
+
+		await panel.getByLabel('Loudspeaker x', { exact: true }).fill('1');
+		await panel.getByRole('button', { name: 'Add position' }).click();
+		const row = page.getByTestId('position').filter({ hasText: label });
+		await row.waitFor();
+		await expect.poll(() => page.getByRole('button', { name: 'Add position' }).count()).toBe(0);
+		expect(await page.getByRole('button', { name: 'New position' }).getAttribute('aria-expanded')).toBe('false');
+
+		// Opened again, it is empty.
+		await page.getByRole('button', { name: 'New position' }).click();
+		expect(await page.getByRole('form').filter({ has: page.getByRole('button', { name: 'Add position' }) }).getByLabel('Label', { exact: true }).inputValue()).toBe('');
+
+		// Leave the demo visit as it was.
+		await row.getByRole('button', { name: `Remove position ${label}` }).click();
+		await expect.poll(() => page.getByTestId('position').filter({ hasText: label }).count()).toBe(0);
 	});
 });
