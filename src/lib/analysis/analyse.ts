@@ -1,5 +1,5 @@
 /** The engine's entry points: an impulse response (or a recorded sweep) in, one JSON-ready result out. */
-import { analyseDecay, DECAY_METRICS, squaredFrom, squareInPlace, type DecayAnalysis } from './band-metrics';
+import { analyseDecay, DECAY_METRICS, type DecayAnalysis } from './band-metrics';
 import { bandLabel, type BandKind } from './bands';
 import { decimateEvenly, decimateKeepingPeaks, roundTo } from './curves';
 import type { DecayFit } from './decay-fit';
@@ -265,12 +265,12 @@ function analyse(
 	// sooner), so the pre-ringing ahead of the direct sound is kept and counted as early energy.
 	const filtered = (lead: number, end: number, run: (from: number, leadingZeros: number) => Float64Array) => {
 		const from = Math.max(0, start - lead);
-		return clock.time('filtering', () => squareInPlace(run(from, lead - (start - from))).subarray(0, lead + end - start));
+		return clock.time('filtering', () => run(from, lead - (start - from)).subarray(0, lead + end - start));
 	};
 
 	// Broadband: the span of the bands, analysed as a band is.
 	const spanLead = bank.span.padding;
-	const broadbandSquared = filtered(spanLead, full.length, (from, zeros) => bank.filterSpanZeroPhase(full, from, full.length, scratch, zeros));
+	const broadbandSquared = filtered(spanLead, full.length, (from, zeros) => bank.filterSpanZeroPhase(full, from, full.length, scratch, zeros, true));
 	const broadbandAnalysis = clock.time('decay', () =>
 		analyseDecay(broadbandSquared, sampleRate, {
 			startIndex: spanLead,
@@ -288,7 +288,7 @@ function analyse(
 	const decayCurves = withCurves ? [decayCurve(BROADBAND, broadbandAnalysis, sampleRate, decayPoints)] : [];
 	const bands = bank.filters.map((filter, i) => {
 		const end = Math.max(fullLength, Math.min(samples.length, provenance.completeLengthAt?.(COMPLETE_ABOVE_UPPER_EDGE * filter.band.upperHz) ?? samples.length));
-		const squared = filtered(filter.padding, end, (from, zeros) => bank.filterZeroPhase(i, samples, from, end, scratch, zeros));
+		const squared = filtered(filter.padding, end, (from, zeros) => bank.filterZeroPhase(i, samples, from, end, scratch, zeros, true));
 		const analysis = clock.time('decay', () => analyseDecay(squared, sampleRate, { bandwidthHz: filter.bandwidthHz, startIndex: filter.padding, decayBuffer }));
 		collectWarnings(filter.band.nominalHz, analysis, warnings);
 		if (withCurves) decayCurves.push(decayCurve(filter.band.nominalHz, analysis, sampleRate, decayPoints));

@@ -143,9 +143,10 @@ export function sectionsPowerGain(sos: SecondOrderSections, frequencyHz: number,
 /**
  * Runs the cascade over data[start…end) in place, forward (step 1) or backward (step −1) in time,
  * transposed direct form II, zero initial state. Three sections — the band filters — run in one
- * sweep over the data with the state in locals; other counts section by section.
+ * sweep over the data with the state in locals; other counts section by section. `square`: each
+ * output is written squared (the decay analysis's input, without a pass of its own).
  */
-function runCascade(sos: SecondOrderSections, data: Float64Array, start: number, end: number, step: 1 | -1): void {
+function runCascade(sos: SecondOrderSections, data: Float64Array, start: number, end: number, step: 1 | -1, square = false): void {
 	if (!(start >= 0 && end <= data.length && start <= end)) throw new RangeError(`bad range ${start}…${end} of ${data.length} samples`);
 	const first = step === 1 ? start : end - 1;
 	const stop = step === 1 ? end : start - 1;
@@ -163,7 +164,7 @@ function runCascade(sos: SecondOrderSections, data: Float64Array, start: number,
 			const y2 = b20 * y1 + s21;
 			s21 = b21 * y1 - a21 * y2 + s22;
 			s22 = b22 * y1 - a22 * y2;
-			data[i] = y2;
+			data[i] = square ? y2 * y2 : y2;
 		}
 		return;
 	}
@@ -183,6 +184,7 @@ function runCascade(sos: SecondOrderSections, data: Float64Array, start: number,
 			data[i] = y;
 		}
 	}
+	if (square) for (let i = start; i < end; i++) data[i] *= data[i];
 }
 
 /** Filters data[start…end) in place, forward in time (causal), zero initial state. */
@@ -190,9 +192,9 @@ export function filterForwardInPlace(sos: SecondOrderSections, data: Float64Arra
 	runCascade(sos, data, start, end, 1);
 }
 
-/** The same, running from the end to the start (time-reversed filtering). */
-export function filterBackwardInPlace(sos: SecondOrderSections, data: Float64Array, start = 0, end = data.length): void {
-	runCascade(sos, data, start, end, -1);
+/** The same, running from the end to the start (time-reversed filtering); `square`: outputs written squared. */
+export function filterBackwardInPlace(sos: SecondOrderSections, data: Float64Array, start = 0, end = data.length, square = false): void {
+	runCascade(sos, data, start, end, -1, square);
 }
 
 /** Butterworth order of each pass: 3 (6th-order band-pass) for octaves and thirds. */
@@ -226,6 +228,8 @@ export interface BandFilterBank {
 	 * `leadingZeros` silent samples are put before the range (the silence before a file that starts
 	 * at its direct sound) so the backward pass's ringing ahead of it is kept; the result then
 	 * starts with them. It is a view of `scratch` when one of scratchLength(…) samples is given.
+	 * `squared`: the band signal's squares (what the decay analysis reads), the same values as
+	 * squaring it afterwards.
 	 */
 	filterZeroPhase(
 		bandIndex: number,
@@ -233,10 +237,11 @@ export interface BandFilterBank {
 		start?: number,
 		end?: number,
 		scratch?: Float64Array,
-		leadingZeros?: number
+		leadingZeros?: number,
+		squared?: boolean
 	): Float64Array;
 	/** The same through the span filter. */
-	filterSpanZeroPhase(input: Float64Array, start?: number, end?: number, scratch?: Float64Array, leadingZeros?: number): Float64Array;
+	filterSpanZeroPhase(input: Float64Array, start?: number, end?: number, scratch?: Float64Array, leadingZeros?: number, squared?: boolean): Float64Array;
 	/** Scratch length filterZeroPhase needs for `length` input samples (and leading zeros) in any band. */
 	scratchLength(length: number, leadingZeros?: number): number;
 }
@@ -280,7 +285,15 @@ export function createBandFilterBank(sampleRate: number, kind: BandKind, options
 	const maxPadding = Math.max(span.padding, ...filters.map((filter) => filter.padding));
 	const scratchLength = (length: number, leadingZeros = 0) => leadingZeros + length + Math.min(maxPadding, Math.max(0, length - 1));
 
-	function zeroPhase(filter: BandFilter, input: Float64Array, start: number, end: number, scratch: Float64Array | undefined, leadingZeros: number): Float64Array {
+	function zeroPhase(
+		filter: BandFilter,
+		input: Float64Array,
+		start: number,
+		end: number,
+		scratch: Float64Array | undefined,
+		leadingZeros: number,
+		squared: boolean
+	): Float64Array {
 		if (!(start >= 0 && end <= input.length && end > start)) throw new RangeError(`bad range ${start}…${end} of ${input.length} samples`);
 		if (!(Number.isInteger(leadingZeros) && leadingZeros >= 0)) throw new RangeError(`leading zeros must be a whole number, got ${leadingZeros}`);
 		const length = end - start;
@@ -292,7 +305,7 @@ export function createBandFilterBank(sampleRate: number, kind: BandKind, options
 		const last = leadingZeros + length - 1;
 		for (let i = 1; i <= pad; i++) work[last + i] = input[end - 1 - i];
 		filterForwardInPlace(filter.sections, work);
-		filterBackwardInPlace(filter.sections, work);
+		filterBackwardInPlace(filter.sections, work, 0, work.length, squared);
 		return work.subarray(0, leadingZeros + length);
 	}
 
@@ -302,15 +315,16 @@ export function createBandFilterBank(sampleRate: number, kind: BandKind, options
 		start = 0,
 		end = input.length,
 		scratch?: Float64Array,
-		leadingZeros = 0
+		leadingZeros = 0,
+		squared = false
 	): Float64Array {
 		const filter = filters[bandIndex];
 		if (!filter) throw new RangeError(`no band ${bandIndex}: the bank has ${filters.length} bands`);
-		return zeroPhase(filter, input, start, end, scratch, leadingZeros);
+		return zeroPhase(filter, input, start, end, scratch, leadingZeros, squared);
 	}
 
-	const filterSpanZeroPhase = (input: Float64Array, start = 0, end = input.length, scratch?: Float64Array, leadingZeros = 0) =>
-		zeroPhase(span, input, start, end, scratch, leadingZeros);
+	const filterSpanZeroPhase = (input: Float64Array, start = 0, end = input.length, scratch?: Float64Array, leadingZeros = 0, squared = false) =>
+		zeroPhase(span, input, start, end, scratch, leadingZeros, squared);
 
 	return { sampleRate, kind, filters, span, filterZeroPhase, filterSpanZeroPhase, scratchLength };
 }

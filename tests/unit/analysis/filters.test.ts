@@ -232,3 +232,23 @@ describe('zero-phase filtering', () => {
 		expect(() => bank.filterZeroPhase(0, new Float64Array(100), start, end)).toThrow(RangeError);
 	});
 });
+
+describe('zero-phase band signals written squared', () => {
+	// The decay analysis reads the squared band signal: squaring it in the backward pass must give
+	// the very values of squaring it afterwards, in every band and the span, with leading zeros.
+	it('equals the band signal squared, bit for bit', () => {
+		const sampleRate = 48000;
+		const x = Float64Array.from({ length: 20000 }, (_, i) => Math.sin(0.05 * i) * Math.exp(-i / 6000) + ((i * 7919) % 997) / 997 - 0.5);
+		const bank = createBandFilterBank(sampleRate, 'octave');
+		const check = (plain: Float64Array, squared: Float64Array) => {
+			expect(squared.length).toBe(plain.length);
+			let mismatches = 0;
+			for (let i = 0; i < plain.length; i++) if (squared[i] !== plain[i] * plain[i]) mismatches++;
+			expect(mismatches).toBe(0);
+		};
+		bank.filters.forEach((_, band) => check(bank.filterZeroPhase(band, x, 100, 19000, undefined, 37), bank.filterZeroPhase(band, x, 100, 19000, undefined, 37, true)));
+		check(bank.filterSpanZeroPhase(x, 0, x.length), bank.filterSpanZeroPhase(x, 0, x.length, undefined, 0, true));
+		// A non-zero signal, so the check compares something.
+		expect(Math.max(...bank.filterZeroPhase(5, x, 0, x.length, undefined, 0, true))).toBeGreaterThan(0);
+	});
+});
