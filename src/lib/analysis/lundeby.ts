@@ -103,14 +103,12 @@ class RangeSums {
 }
 
 /** Steps 1 and 6: mean square in consecutive intervals, in dB, stamped at each interval's centre. */
-function averageIntervals(squared: Float64Array, length: number, sampleRate: number): Intervals {
-	// One plain loop (not range sums): it is fast from the first call, before the code is optimised.
+function averageIntervals(squared: Float64Array, length: number, sampleRate: number, sums: RangeSums): Intervals {
 	const count = Math.floor(squared.length / length);
 	const timesS = new Float64Array(count);
 	const levelsDb = new Float64Array(count);
 	for (let j = 0; j < count; j++) {
-		let sum = 0;
-		for (let i = j * length; i < (j + 1) * length; i++) sum += squared[i];
+		const sum = sums.sum(j * length, (j + 1) * length);
 		timesS[j] = (j * length + length / 2) / sampleRate;
 		levelsDb[j] = 10 * Math.log10(Math.max(sum / length, TINY_POWER));
 	}
@@ -190,7 +188,7 @@ export function estimateNoiseFloor(squared: Float64Array, sampleRate: number, op
 
 	// Steps 1, 3: coarse intervals, a line from the peak to where the level nears the noise.
 	const initialLength = Math.max(1, Math.round((options.initialIntervalS ?? DEFAULT_INITIAL_INTERVAL_S) * sampleRate));
-	let intervals = averageIntervals(squared, Math.min(initialLength, Math.floor(n / 4)), sampleRate);
+	let intervals = averageIntervals(squared, Math.min(initialLength, Math.floor(n / 4)), sampleRate, sums);
 	let peakInterval = argMax(intervals.levelsDb);
 	let noiseDb = 10 * Math.log10(noisePower);
 	const firstFitEnd = firstAtOrBelow(intervals.levelsDb, peakInterval + 1, noiseDb + FIRST_FIT_MARGIN_DB);
@@ -203,7 +201,7 @@ export function estimateNoiseFloor(squared: Float64Array, sampleRate: number, op
 	// Steps 5, 6: new interval length giving a few intervals per 10 dB of decay.
 	const lengthFromSlope = Math.round((10 / -line.slopeDbPerS / INTERVALS_PER_10_DB) * sampleRate);
 	const intervalLength = Math.max(1, Math.min(lengthFromSlope, Math.floor(n / 8)));
-	intervals = averageIntervals(squared, intervalLength, sampleRate);
+	intervals = averageIntervals(squared, intervalLength, sampleRate, sums);
 	peakInterval = argMax(intervals.levelsDb);
 
 	// Steps 7–10: noise past the crosspoint, late decay line, new crosspoint, until it settles.
