@@ -7,7 +7,7 @@ import type { BandKind } from '../analysis/bands';
 import type { AveragedBand, BandDifference } from '../analysis/compare';
 import type { BandMetrics, SmoothingKey } from '../analysis/types';
 import type { GradeAssessment } from './grade';
-import type { MidFrequencyReverberation } from './reverberation';
+import { midFrequencyReverberation, type MidFrequencyReverberation } from './reverberation';
 import type { VisitStatistics } from './statistics';
 import { matchedStrongReflections } from './summary';
 import type { BandJudgement, ComparisonModel, PositionOutlier, SessionSummary } from './types';
@@ -72,13 +72,11 @@ export interface ComparisonBands {
 	judgements: BandJudgement[];
 }
 
-/** One visit of a comparison, as its pages name and use it. */
+/** One visit of a comparison, as its pages name it. */
 export interface ComparisonSide {
 	sessionId: number;
 	conditionLabel: string;
 	measuredOn: string;
-	/** The visit's average over all its positions, per octave band. */
-	average: AveragedBand[];
 }
 
 /** What the comparison and report pages draw of a comparison. */
@@ -92,10 +90,17 @@ export interface ComparisonView {
 	baselineOnly: string[];
 	treatedOnly: string[];
 	responses: ComparisonResponses;
+	/** The octave tables, with the metrics the pages show (and the judgements of T30 and T20, which they quote). */
 	octaves: ComparisonBands;
 	hasThirds: boolean;
+	/**
+	 * T_mid of the treated visit's average over all its positions: where the room-mode marks stop
+	 * (the Schroeder frequency takes it).
+	 */
+	treatedMid: MidFrequencyReverberation | null;
 	target: ComparisonModel['target'];
-	verdicts: ComparisonModel['verdicts'];
+	/** The treated visit's verdict per band against the target. */
+	verdictsAfter: ComparisonModel['verdicts']['after'];
 	summary: string[];
 	/** The matched positions one by one, with the metrics the table offers. */
 	positionDifferences: { positionLabel: string; differences: BandDifference[] }[];
@@ -175,10 +180,15 @@ export function comparisonBands(model: ComparisonModel, bandKind: BandKind): Com
 	return source && { bandKind, differences: source.differences, judgements: source.judgements };
 }
 
-const withTableMetrics = (d: BandDifference): BandDifference => ({
-	centerHz: d.centerHz,
-	metrics: Object.fromEntries(TABLE_METRICS.filter((m) => m in d.metrics).map((m) => [m, d.metrics[m]]))
-});
+const only = <V>(metrics: Record<string, V>, keys: readonly string[]): Record<string, V> => Object.fromEntries(keys.filter((m) => m in metrics).map((m) => [m, metrics[m]]));
+const withTableMetrics = (d: BandDifference): BandDifference => ({ centerHz: d.centerHz, metrics: only(d.metrics, TABLE_METRICS) });
+/** The metrics whose judgements the pages quote: reverberation, T30 or T20 where T30 is missing (reverberationJudgement). */
+const JUDGED_METRICS = ['t30S', 't20S'] as const;
+
+/** Band tables with what the pages show of them. */
+function drawnBands(b: ComparisonBands): ComparisonBands {
+	return { bandKind: b.bandKind, differences: b.differences.map(withTableMetrics), judgements: b.judgements.map((j) => ({ centerHz: j.centerHz, metrics: only(j.metrics, JUDGED_METRICS) })) };
+}
 
 export function comparisonView(model: ComparisonModel, tag: string): ComparisonView {
 	const responses = comparisonResponses(model, DEFAULT_SMOOTHING);
@@ -189,7 +199,7 @@ export function comparisonView(model: ComparisonModel, tag: string): ComparisonV
 		const p = s.positions.find((x) => x.positionLabel === label);
 		return p ? curveOf(p.response, POSITION_OVERLAY_SMOOTHING, share) : null;
 	};
-	const side = (s: SessionSummary): ComparisonSide => ({ sessionId: s.sessionId, conditionLabel: s.conditionLabel, measuredOn: s.measuredOn, average: s.average });
+	const side = (s: SessionSummary): ComparisonSide => ({ sessionId: s.sessionId, conditionLabel: s.conditionLabel, measuredOn: s.measuredOn });
 	const stats = (v: VisitStatistics) => ({ grade: v.grade, midFrequency: v.midFrequency });
 	return {
 		tag,
@@ -200,10 +210,11 @@ export function comparisonView(model: ComparisonModel, tag: string): ComparisonV
 		baselineOnly: model.baselineOnly,
 		treatedOnly: model.treatedOnly,
 		responses,
-		octaves: comparisonBands(model, 'octave')!,
+		octaves: drawnBands(comparisonBands(model, 'octave')!),
 		hasThirds: model.thirds !== null,
+		treatedMid: midFrequencyReverberation(model.treated.average.map((b) => ({ centerHz: b.centerHz, t30S: b.values.t30S?.mean, t20S: b.values.t20S?.mean }))),
 		target: model.target,
-		verdicts: model.verdicts,
+		verdictsAfter: model.verdicts.after,
 		summary: model.summary,
 		positionDifferences: model.positionDifferences.map((p) => ({ positionLabel: p.positionLabel, differences: p.differences.map(withTableMetrics) })),
 		positionResponses: model.matchedPositions.map((label) => ({ positionLabel: label, before: ownResponse(model.baseline, label), after: ownResponse(model.treated, label) })),

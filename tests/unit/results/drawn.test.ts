@@ -18,6 +18,8 @@ import {
 } from '../../../src/lib/results/drawn';
 import { summariseSession } from '../../../src/lib/results/session';
 import { matchedStrongReflections } from '../../../src/lib/results/summary';
+import { midFrequencyReverberation } from '../../../src/lib/results/reverberation';
+import { reverberationJudgement } from '../../../src/lib/results/statistics';
 import type { PositionResult, SessionSummary } from '../../../src/lib/results/types';
 import { makePosition, makeRoom, type BandInput } from './factories';
 
@@ -121,11 +123,23 @@ describe('the comparison and report pages', () => {
 	});
 
 	it('are sent the octave tables, the verdicts, the summary, the grades and the reflections the pages show', () => {
-		expect(view.octaves).toEqual({ bandKind: 'octave', differences: model.differences, judgements: model.judgements });
+		// Each band's shown metrics, and the judgements of T30 and T20 the verdict column quotes.
+		expect(view.octaves.bandKind).toBe('octave');
+		expect(view.octaves.differences.map((d) => d.centerHz)).toEqual(model.differences.map((d) => d.centerHz));
+		view.octaves.differences.forEach((d, i) => {
+			expect(Object.keys(d.metrics).sort()).toEqual([...TABLE_METRICS].sort());
+			for (const m of TABLE_METRICS) expect(d.metrics[m]).toEqual(model.differences[i].metrics[m]);
+		});
+		view.octaves.judgements.forEach((j, i) => {
+			expect(j).toEqual({ centerHz: model.judgements[i].centerHz, metrics: { t30S: model.judgements[i].metrics.t30S, t20S: model.judgements[i].metrics.t20S } });
+			expect(reverberationJudgement(j)).toEqual(reverberationJudgement(model.judgements[i]));
+		});
+		expect(view.octaves.judgements.some((j) => reverberationJudgement(j))).toBe(true);
 		expect(view.target).toBe(model.target);
-		expect(view.verdicts).toBe(model.verdicts);
+		expect(view.verdictsAfter).toBe(model.verdicts.after);
 		expect(view.summary).toBe(model.summary);
-		expect(view.treated.average).toBe(model.treated.average);
+		expect(view.treatedMid).toEqual(midFrequencyReverberation(model.treated.average.map((b) => ({ centerHz: b.centerHz, t30S: b.values.t30S?.mean, t20S: b.values.t20S?.mean }))));
+		expect(view.treatedMid!.valueS).toBeGreaterThan(0.5);
 		expect(view.matchedStatistics.baseline.grade).toBe(model.matchedStatistics.baseline.grade);
 		expect(view.matchedStatistics.treated.midFrequency).toBe(model.matchedStatistics.treated.midFrequency);
 		expect(view.strongReflections).toEqual(matchedStrongReflections(model));

@@ -227,6 +227,17 @@ export async function insertStock(k: Knex, planId: number, s: Omit<StockSheetRow
 	return id;
 }
 
+/**
+ * The same as hasSharedPlan, as a column of another query of the room (`roomIdColumn` names its
+ * id there), so a page reading the room learns it without a query of its own.
+ */
+export function sharedPlanColumn(k: Knex, roomIdColumn: string, alias: string): Knex.Raw {
+	return k.raw(
+		`EXISTS (SELECT 1 FROM treatment_plans sp WHERE sp.room_id = ${roomIdColumn} AND sp.include_in_report = TRUE AND EXISTS (SELECT 1 FROM treatment_items si WHERE si.plan_id = sp.id)) AS ??`,
+		[alias]
+	);
+}
+
 /** Whether the room's plan is to be shown in its report and has something in it. */
 export async function hasSharedPlan(k: Knex, roomId: number): Promise<boolean> {
 	const shared = await k('treatment_plans as p')

@@ -3,6 +3,7 @@ import type { ProblemBandView } from '../../results/types';
 import type { ProjectRow } from '../../types/projects';
 import { roomColumns, sessionCount, type RoomRow } from './rooms';
 import { toIsoDate } from './sessions';
+import { sharedPlanColumn } from './plans';
 
 export interface ComparisonRow {
 	id: number;
@@ -53,6 +54,8 @@ export async function getComparisonHeader(k: Knex, id: number): Promise<
 			room: RoomRow;
 			project: Pick<ProjectRow, 'id' | 'organizationId' | 'organizationName' | 'name' | 'clientName'>;
 			visits: { sessionId: number; conditionLabel: string; measuredOn: string }[];
+			/** Whether the room's plan is to be shown in its report (hasSharedPlan). */
+			sharedPlan: boolean;
 	  }
 	| undefined
 > {
@@ -67,7 +70,8 @@ export async function getComparisonHeader(k: Knex, id: number): Promise<
 		.select(prefixed('r_', roomColumns))
 		.select(sessionCount(k))
 		.select({ p_id: 'p.id', p_organizationId: 'p.organization_id', p_organizationName: 'o.name', p_name: 'p.name', p_clientName: 'p.client_name' })
-		.select({ sb_condition: 'sb.condition_label', sb_measuredOn: 'sb.measured_on', st_condition: 'st.condition_label', st_measuredOn: 'st.measured_on' });
+		.select({ sb_condition: 'sb.condition_label', sb_measuredOn: 'sb.measured_on', st_condition: 'st.condition_label', st_measuredOn: 'st.measured_on' })
+		.select(sharedPlanColumn(k, 'r.id', 'sharedPlan'));
 	if (!r) return undefined;
 	const comparison = shapeComparison(unprefixed('cm_', r));
 	return {
@@ -77,7 +81,8 @@ export async function getComparisonHeader(k: Knex, id: number): Promise<
 		visits: [
 			{ sessionId: comparison.baselineSessionId, conditionLabel: r.sb_condition, measuredOn: toIsoDate(r.sb_measuredOn) },
 			{ sessionId: comparison.treatedSessionId, conditionLabel: r.st_condition, measuredOn: toIsoDate(r.st_measuredOn) }
-		]
+		],
+		sharedPlan: Boolean(Number(r.sharedPlan))
 	};
 }
 

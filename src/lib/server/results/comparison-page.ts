@@ -4,7 +4,6 @@ import { error } from '@sveltejs/kit';
 import type { Knex } from 'knex';
 import { db } from '../db';
 import { getComparisonHeader, listProblemBands } from '../queries/reviews';
-import { hasSharedPlan } from '../queries/plans';
 import type { RoomRow } from '../queries/rooms';
 import { comparisonViewOf, loadComparisonResults } from './load';
 import { Lru } from './cache';
@@ -24,10 +23,10 @@ import type { SmoothingKey } from '../../analysis/types';
 // its plan changes.
 const planReports = new Lru<PlanReport>(32);
 
-/** The room's plan for the report, when the consultant chose to show it and it has items. */
-async function reportPlanOf(k: Knex, scope: Scope, room: RoomRow, organizationId: number, model: ComparisonModel): Promise<PlanReport | null> {
-	// Most rooms have no shared plan: ask before working one through.
-	if (!(await hasSharedPlan(k, room.id))) return null;
+/** The room's plan for the report, when the consultant chose to show it and it has items (`shared`, as the heading query read it). */
+async function reportPlanOf(k: Knex, scope: Scope, room: RoomRow, organizationId: number, model: ComparisonModel, shared: boolean): Promise<PlanReport | null> {
+	// Most rooms have no shared plan: known before working one through.
+	if (!shared) return null;
 	const inputs = await readPlanInputs(k, room, organizationId, [model.baseline, model.treated]);
 	const unit = unitOfSystem(scope.user.unitSystem);
 	return planReports.through(JSON.stringify([inputs, unit]), () => {
@@ -38,18 +37,18 @@ async function reportPlanOf(k: Knex, scope: Scope, room: RoomRow, organizationId
 
 /** The comparison row, refused to a client while it is a draft (a client never learns that a draft exists). */
 async function reachableComparison(k: Knex, scope: Scope, comparisonId: number) {
-	const { comparison, room, project, visits } = (await getComparisonHeader(k, comparisonId))!;
+	const { comparison, room, project, visits, sharedPlan } = (await getComparisonHeader(k, comparisonId))!;
 	const internal = roleAllows(scope.role, 'project:internal');
 	if (!internal && !comparison.publishedAt) error(404, 'Not found.');
-	return { comparison, room, project, visits, internal };
+	return { comparison, room, project, visits, sharedPlan, internal };
 }
 
 /** The whole comparison with everything its pages show: for the PDF, the exports and the comparison JSON. */
 export async function loadComparisonDocument(scope: Scope, comparisonId: number, options: { withPlan?: boolean } = {}) {
 	const k = db();
-	const { comparison, room, project, visits, internal } = await reachableComparison(k, scope, comparisonId);
+	const { comparison, room, project, visits, sharedPlan, internal } = await reachableComparison(k, scope, comparisonId);
 	const [{ model, tag, warnings }, problemBands] = await Promise.all([loadComparisonResults(k, comparison, { room, visits }), listProblemBands(k, room.id)]);
-	const plan = options.withPlan ? await reportPlanOf(k, scope, room, project.organizationId, model) : null;
+	const plan = options.withPlan ? await reportPlanOf(k, scope, room, project.organizationId, model, sharedPlan) : null;
 	const showQuality = internal || comparison.shareQualityNotes;
 	let qualityNotes: { positionLabel: string; condition: string; messages: string[] }[] = [];
 	if (showQuality) {
