@@ -122,7 +122,7 @@ describe('forms at phone and desktop width', () => {
 					return { need: Math.ceil(text + parseFloat(style.paddingLeft) + parseFloat(style.paddingRight) + 16), have: el.clientWidth, name: el.selectedOptions[0]?.text };
 				});
 				if (fit.need > fit.have) {
-					// Narrower than the name (a phone): the cell shows the chosen name in full, on the screen.
+					// Narrower than the name: the cell shows the chosen name in full, on the screen.
 					const name = page.getByTestId('finish-name').nth(i);
 					expect(await name.isVisible(), `menu ${i}: ${fit.name} is cut (${fit.have} of ${fit.need} px) and not shown beside it`).toBe(true);
 					expect(await name.innerText()).toBe(fit.name);
@@ -151,7 +151,7 @@ describe('forms at phone and desktop width', () => {
 		expect(await panel.getByLabel('Label', { exact: true }).inputValue()).toBe(label);
 		expect(await panel.getByLabel('Loudspeaker x', { exact: true }).inputValue()).toBe('999');
 
-		await panel.getByLabel('Loudspeaker x', { exact: true }).fill('1');
+		await panel.getByLabel('Loudspeaker x', { exact: true }).fill(''); // a point is given whole or not at all
 		await panel.getByRole('button', { name: 'Add position' }).click();
 		const row = page.getByTestId('position').filter({ hasText: label });
 		await row.waitFor();
