@@ -9,6 +9,8 @@ import { synthesiseResponse, TREATED, UNTREATED } from './room-response';
 import { DEMO_PROJECTS } from './scenario';
 import { seedDemoCalibration } from './seed-calibration';
 import { seedDemoVisitRecords } from './seed-photos';
+import { createSweep } from '../../src/lib/server/sweeps/service';
+import { sweepDefinitionSchema } from '../../src/lib/schemas/captures';
 
 export async function seedDemoCaptures(k: Knex, organizationId: number): Promise<number> {
 	const acoustician = await k('users').where({ email: 'acoustician@fenwick-hale.test' }).first('id', 'email', 'name');
@@ -18,6 +20,9 @@ export async function seedDemoCaptures(k: Knex, organizationId: number): Promise
 		role: 'acoustician',
 		user: { id: acoustician.id, email: acoustician.email, name: acoustician.name, unitSystem: 'metric' }
 	};
+	// The practice's own test signal, so measuring in the browser and recorded-sweep uploads have
+	// one to choose from the start: 20 Hz – 20 kHz over 5 s at 48 kHz, peaks at −6 dBFS.
+	await createSweep(scope, sweepDefinitionSchema.parse({ name: 'Site sweep 20 Hz – 20 kHz, 5 s', sampleRate: 48000, f1Hz: 20, f2Hz: 20000, durationS: 5, levelDbfs: -6, silenceS: 2 }));
 	const demo = DEMO_PROJECTS[0];
 	const room = { lengthM: demo.room.lengthM, widthM: demo.room.widthM, heightM: demo.room.heightM };
 	const sessions = await k('sessions as s')
