@@ -7,6 +7,7 @@ import { getComparisonHeader, listProblemBands } from '../queries/reviews';
 import type { RoomRow } from '../queries/rooms';
 import { comparisonViewOf, loadComparisonResults } from './load';
 import { Lru } from './cache';
+import { pack } from '../../packed';
 import type { Scope } from '../auth/access';
 import type { ComparisonModel } from '../../results/types';
 import { roleAllows } from '../../roles';
@@ -29,10 +30,12 @@ async function reportPlanOf(k: Knex, scope: Scope, room: RoomRow, organizationId
 	if (!shared) return null;
 	const inputs = await readPlanInputs(k, room, organizationId, [model.baseline, model.treated]);
 	const unit = unitOfSystem(scope.user.unitSystem);
-	return planReports.through(JSON.stringify([inputs, unit]), () => {
+	const report = await planReports.through(JSON.stringify([inputs, unit]), () => {
 		const view = workOutPlan(inputs);
 		return planReport(view.plan.items, view.evaluation, view.cost, view.plan.settings.currency, unit);
 	});
+	// Frozen once kept, so serialized for the page data then too.
+	return pack(report);
 }
 
 /** The comparison row, refused to a client while it is a draft (a client never learns that a draft exists). */
