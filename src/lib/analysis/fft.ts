@@ -78,8 +78,8 @@ const MAX_KEPT_SIZES = 8;
 export class RealFftPlan {
 	readonly size: number;
 	private readonly half: FFT;
-	/** cos, sin of 2πk/N for k < N/2. */
-	private readonly twiddle: Float64Array;
+	/** cos, sin of 2πk/N for k < N/2 (read by ChirpDftPlan too). */
+	readonly twiddle: Float64Array;
 	private readonly packed: Float64Array;
 	/** Only for an inverse into an output longer than N. */
 	private transformed: Float64Array | undefined;
@@ -88,7 +88,7 @@ export class RealFftPlan {
 		if (!isPowerOfTwo(size) || size < 8) throw new RangeError(`real FFT size must be a power of two ≥ 8, got ${size}`);
 		this.size = size;
 		this.half = fftOfSize(size / 2);
-		this.twiddle = twiddleTable(size);
+		this.twiddle = twiddles(size);
 		this.packed = new Float64Array(size);
 	}
 
@@ -158,16 +158,14 @@ export class RealFftPlan {
 }
 
 /**
- * cos, sin of 2πk/N for k < N/2, interleaved, cached by size. The even k are read from the
+ * cos, sin of 2πk/N for k < N/2, interleaved. The even k are read from the
  * half-size fft.js table, which holds cos and −sin of 2π(2j)/N computed from the very same
  * double (π·2j/(N/2) and 2π·2j/N differ only by exact powers of two), so every value is the one
  * Math.cos/Math.sin give directly; only the odd k are computed, half the trigonometric calls
  * (most of a new plan's cost before its code is optimised).
  */
-function twiddleTable(size: number): Float64Array {
-	let table = twiddleTables.get(size);
-	if (table) return table;
-	table = new Float64Array(size);
+function twiddles(size: number): Float64Array {
+	const table = new Float64Array(size);
 	const halfTable = (fftOfSize(size / 2) as unknown as { table: Float64Array }).table;
 	for (let k = 0; k < size / 2; k += 2) {
 		table[2 * k] = halfTable[k];
@@ -178,12 +176,8 @@ function twiddleTable(size: number): Float64Array {
 		table[2 * k] = Math.cos(angle);
 		table[2 * k + 1] = Math.sin(angle);
 	}
-	if (twiddleTables.size >= MAX_KEPT_SIZES) twiddleTables.delete(Math.max(...twiddleTables.keys()));
-	twiddleTables.set(size, table);
 	return table;
 }
-
-const twiddleTables = new Map<number, Float64Array>();
 
 /** Bin k of a real FFT from Z[k] = (zr, zi) and conj Z[m−k] = (cr, ci) of the half-size transform. */
 function writeBin(spectrum: Float64Array, tw: Float64Array, m: number, k: number, zr: number, zi: number, cr: number, ci: number): void {
@@ -250,7 +244,7 @@ export class ChirpDftPlan {
 		const m = fftSizeFor(bins + maxLength - 1);
 		this.convolutionSize = m;
 		this.fft = fftOfSize(m);
-		this.roots = twiddleTable(size);
+		this.roots = realFftPlan(size).twiddle;
 		const count = Math.max(bins, maxLength);
 		this.chirp = new Float64Array(2 * count);
 		for (let j = 0; j < count; j++) {
