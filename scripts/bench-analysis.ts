@@ -67,9 +67,8 @@ const load = () => loadavg().map((v) => v.toFixed(2)).join(' ');
 
 async function writeInputs(directory: string): Promise<Case[]> {
 	const { encodeWav } = await import('../src/lib/analysis/wav');
-	const { exponentialNoiseDecay } = await import('../src/lib/analysis/synthetic');
+	const { convolve, exponentialNoiseDecay } = await import('../src/lib/analysis/synthetic');
 	const { generateExponentialSweep } = await import('../src/lib/analysis/sweep');
-	const { RealFftPlan, fftSizeFor } = await import('../src/lib/analysis/fft');
 	const write = (name: string, samples: Float64Array, sampleRate: number) => {
 		const path = join(directory, name);
 		writeFileSync(path, encodeWav(samples, sampleRate, '32f'));
@@ -88,18 +87,7 @@ async function writeInputs(directory: string): Promise<Case[]> {
 	const sweep = generateExponentialSweep({ f1Hz: 20, f2Hz: 20000, durationS: 8, sampleRate, fadeInS: 0.1, fadeOutS: 0.02, amplitude: 0.5 });
 	const room = exponentialNoiseDecay({ t60S: 0.6, durationS: 1.5, sampleRate, onsetS: 0.003, seed: 2 }).map((v) => 0.02 * v);
 	room[288] += 0.5;
-	const plan = new RealFftPlan(fftSizeFor(sweep.samples.length + room.length));
-	const a = new Float64Array(plan.size + 2);
-	const b = new Float64Array(plan.size + 2);
-	plan.forward(sweep.samples, a);
-	plan.forward(room, b);
-	for (let k = 0; k <= plan.size / 2; k++) {
-		const re = a[2 * k] * b[2 * k] - a[2 * k + 1] * b[2 * k + 1];
-		a[2 * k + 1] = a[2 * k] * b[2 * k + 1] + a[2 * k + 1] * b[2 * k];
-		a[2 * k] = re;
-	}
-	const recorded = new Float64Array(plan.size);
-	plan.inverse(a, recorded);
+	const recorded = convolve(sweep.samples, room, 10 * sampleRate);
 	// A little background noise, as in a real recording.
 	let state = 7;
 	for (let i = 0; i < recorded.length; i++) {

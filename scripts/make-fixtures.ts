@@ -5,9 +5,8 @@
 import { writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { analysisBands } from '../src/lib/analysis/bands';
-import { RealFftPlan, fftSizeFor } from '../src/lib/analysis/fft';
 import { generateExponentialSweep } from '../src/lib/analysis/sweep';
-import { exponentialNoiseDecay, multiToneDecay } from '../src/lib/analysis/synthetic';
+import { convolve, exponentialNoiseDecay, multiToneDecay } from '../src/lib/analysis/synthetic';
 import { encodeWav } from '../src/lib/analysis/wav';
 
 const SAMPLE_RATE = 48000;
@@ -23,26 +22,6 @@ function scaleToPeak(x: Float64Array, peak: number): Float64Array {
 	let max = 0;
 	for (const v of x) max = Math.max(max, Math.abs(v));
 	return x.map((v) => (v * peak) / max);
-}
-
-/** Linear convolution through one FFT size ≥ both lengths together. */
-function convolve(a: Float64Array, b: Float64Array): Float64Array {
-	const length = a.length + b.length - 1;
-	const plan = new RealFftPlan(fftSizeFor(length));
-	const size = plan.size;
-	const A = new Float64Array(size + 2);
-	const B = new Float64Array(size + 2);
-	plan.forward(a, A);
-	plan.forward(b, B);
-	for (let k = 0; k <= size / 2; k++) {
-		const re = A[2 * k] * B[2 * k] - A[2 * k + 1] * B[2 * k + 1];
-		const im = A[2 * k] * B[2 * k + 1] + A[2 * k + 1] * B[2 * k];
-		A[2 * k] = re;
-		A[2 * k + 1] = im;
-	}
-	const out = new Float64Array(size);
-	plan.inverse(A, out);
-	return out.subarray(0, length);
 }
 
 // Octave-centre tones decaying with T = 0.5 s: every octave band and the broadband T is 0.5 s.

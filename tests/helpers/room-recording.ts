@@ -2,28 +2,7 @@
 // several times back to back through a synthetic impulse response (a direct sound and an
 // exponentially decaying diffuse tail of known T), with steady background noise, as a microphone
 // would hear it.
-import { fftSizeFor, RealFftPlan } from '../../src/lib/analysis';
-import { createSeededGaussian, exponentialNoiseDecay } from '../../src/lib/analysis/synthetic';
-
-/** Linear convolution through one FFT size ≥ both lengths together. */
-export function convolve(a: Float64Array, b: Float64Array): Float64Array {
-	const length = a.length + b.length - 1;
-	const plan = new RealFftPlan(fftSizeFor(length));
-	const size = plan.size;
-	const A = new Float64Array(size + 2);
-	const B = new Float64Array(size + 2);
-	plan.forward(a, A);
-	plan.forward(b, B);
-	for (let k = 0; k <= size / 2; k++) {
-		const re = A[2 * k] * B[2 * k] - A[2 * k + 1] * B[2 * k + 1];
-		const im = A[2 * k] * B[2 * k + 1] + A[2 * k + 1] * B[2 * k];
-		A[2 * k] = re;
-		A[2 * k + 1] = im;
-	}
-	const out = new Float64Array(size);
-	plan.inverse(A, out);
-	return out.slice(0, length);
-}
+import { convolve, createSeededGaussian, exponentialNoiseDecay } from '../../src/lib/analysis/synthetic';
 
 export interface SyntheticRoom {
 	/** Reverberation time of the diffuse tail, s (every band: the tail is white). */

@@ -2,6 +2,27 @@
  * Signals made from formulas, for fixtures, demos and benchmarks: ideal exponential decays whose
  * parameters are known in closed form (the method of Cabrera, Xun & Guski, Acoustics Australia 44:369, 2016).
  */
+import { fftSizeFor, RealFftPlan } from './fft';
+
+/**
+ * Linear convolution of a and b through one FFT, `length` samples long (by default the whole
+ * a.length + b.length − 1; longer keeps the transform's zero padding).
+ */
+export function convolve(a: Float64Array, b: Float64Array, length = a.length + b.length - 1): Float64Array {
+	const plan = new RealFftPlan(fftSizeFor(Math.max(length, a.length + b.length - 1)));
+	const A = new Float64Array(plan.size + 2);
+	const B = new Float64Array(plan.size + 2);
+	plan.forward(a, A);
+	plan.forward(b, B);
+	for (let k = 0; k <= plan.size / 2; k++) {
+		const re = A[2 * k] * B[2 * k] - A[2 * k + 1] * B[2 * k + 1];
+		A[2 * k + 1] = A[2 * k] * B[2 * k + 1] + A[2 * k + 1] * B[2 * k];
+		A[2 * k] = re;
+	}
+	const out = new Float64Array(plan.size);
+	plan.inverse(A, out);
+	return out.subarray(0, length);
+}
 
 /** Mulberry32: a small, fast 32-bit generator; fixed seeds give the same signal everywhere. */
 export function createSeededRandom(seed: number): () => number {

@@ -5,34 +5,15 @@ import { describe, expect, it } from 'vitest';
 import { analyseRecording } from '../../../src/lib/analysis/analyse';
 import { analysisBands } from '../../../src/lib/analysis/bands';
 import { completeLengthAt, deconvolveSweep } from '../../../src/lib/analysis/deconvolve';
-import { RealFftPlan, fftSizeFor } from '../../../src/lib/analysis/fft';
 import { generateExponentialSweep } from '../../../src/lib/analysis/sweep';
 import { BAND_FILTER_ORDER, zeroPhasePassEdges } from '../../../src/lib/analysis/filters';
-import { createSeededGaussian, exponentialNoiseDecay, multiToneDecay } from '../../../src/lib/analysis/synthetic';
+import { convolve, createSeededGaussian, exponentialNoiseDecay, multiToneDecay } from '../../../src/lib/analysis/synthetic';
 import { encodeWav } from '../../../src/lib/analysis/wav';
 import { runReference } from './helpers/python-reference';
 
 const SAMPLE_RATE = 48000;
 /** A room whose low end rings longest, as small rooms do: T per octave 63 Hz … 8 kHz. */
 const T60_S = [1.2, 1.1, 0.8, 0.65, 0.55, 0.5, 0.45, 0.4];
-
-/** Linear convolution through one FFT of size ≥ both lengths together. */
-function convolve(a: Float64Array, b: Float64Array): Float64Array {
-	const length = a.length + b.length - 1;
-	const plan = new RealFftPlan(fftSizeFor(length));
-	const A = new Float64Array(plan.size + 2);
-	const B = new Float64Array(plan.size + 2);
-	plan.forward(a, A);
-	plan.forward(b, B);
-	for (let k = 0; k <= plan.size / 2; k++) {
-		const re = A[2 * k] * B[2 * k] - A[2 * k + 1] * B[2 * k + 1];
-		A[2 * k + 1] = A[2 * k] * B[2 * k + 1] + A[2 * k + 1] * B[2 * k];
-		A[2 * k] = re;
-	}
-	const out = new Float64Array(plan.size);
-	plan.inverse(A, out);
-	return out.subarray(0, length);
-}
 
 /**
  * One decaying tone per octave centre, each with its band's T (the closed-form decays of Cabrera,
