@@ -7,16 +7,10 @@ import { takeFilename } from '$lib/measure/positions';
 import { analyseTake, requiredLength, TakeError, takeRefusal, type TakePlan, type TakeResult } from '$lib/measure/take';
 import { AudioRig, type PlayOn } from './audio-rig.svelte';
 import { UploadQueue } from './upload-queue.svelte';
+import type { MeasureSignal } from '$lib/types/measure';
 
-export interface SignalDefinition {
-	id: number;
-	name: string;
-	f1Hz: number;
-	f2Hz: number;
-	durationS: number;
-	silenceS: number;
-	sampleRate: number;
-}
+/** What loading a signal needs of its definition. */
+export type SignalDefinition = Omit<MeasureSignal, 'levelDbfs'>;
 
 export interface LoadedSignal {
 	definition: SignalDefinition;

@@ -9,17 +9,7 @@ import { getRoom } from '../queries/rooms';
 import { getSession } from '../queries/sessions';
 import { listSweeps } from '../queries/sweeps';
 import { sessionCaptureViews } from '../captures/views';
-
-export interface MeasureSignal {
-	id: number;
-	name: string;
-	f1Hz: number;
-	f2Hz: number;
-	durationS: number;
-	silenceS: number;
-	sampleRate: number;
-	levelDbfs: number;
-}
+import type { MeasureSignal } from '../../types/measure';
 
 export async function measurePage(scope: Scope, sessionId: number) {
 	const k = db();
