@@ -1,5 +1,6 @@
 // Headless Chromium from Debian, driven by playwright-core (no browser download).
 import { chromium, type Browser, type Locator, type Page } from 'playwright-core';
+import { join } from 'node:path';
 import { BASE_URL, DEMO_PASSWORD } from '../helpers/env';
 
 export interface LaunchOptions {
@@ -55,4 +56,15 @@ export async function seen(locator: Locator, timeout = 5_000): Promise<boolean> 
 	} catch {
 		return false;
 	}
+}
+
+/** Screenshots at a desktop and a phone width when SCREENSHOT_DIR is set, to look at (not compared). */
+export async function shots(page: Page, name: string): Promise<void> {
+	const dir = process.env.SCREENSHOT_DIR;
+	if (!dir) return;
+	for (const width of [1280, 390]) {
+		await page.setViewportSize({ width, height: 900 });
+		await page.screenshot({ path: join(dir, `${name}-${width}.png`), fullPage: true });
+	}
+	await page.setViewportSize({ width: 1280, height: 900 });
 }

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { join } from 'node:path';
-import { launch, newPage, seen, signIn } from './browser';
+import { launch, newPage, seen, shots, signIn } from './browser';
 
 // Mistakes at upload are put right where they happen: an upload into a new position that fails
 // leaves no empty position and can be sent again; a recorded sweep's played sweep is changed on
@@ -117,13 +117,3 @@ describe('the played sweep of a recorded sweep', () => {
 	});
 });
 
-/** Screenshots at a desktop and a phone width when SCREENSHOT_DIR is set, to look at (not compared). */
-async function shots(page: Page, name: string): Promise<void> {
-	const dir = process.env.SCREENSHOT_DIR;
-	if (!dir) return;
-	for (const width of [1280, 390]) {
-		await page.setViewportSize({ width, height: 900 });
-		await page.screenshot({ path: join(dir, `${name}-${width}.png`), fullPage: true });
-	}
-	await page.setViewportSize({ width: 1280, height: 900 });
-}

@@ -5,7 +5,7 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { launch, newPage, seen, signIn } from './browser';
+import { launch, newPage, seen, shots, signIn } from './browser';
 import { testDb } from '../helpers/db';
 import { hashPassword } from '../../src/lib/server/auth/password';
 
@@ -136,13 +136,3 @@ describe('an imperial user', () => {
 
 const today = () => new Date().toISOString().slice(0, 10);
 
-/** Screenshots at a desktop and a phone width when SCREENSHOT_DIR is set, to look at (not compared). */
-async function shots(page: Page, name: string): Promise<void> {
-	const dir = process.env.SCREENSHOT_DIR;
-	if (!dir) return;
-	for (const width of [1280, 390]) {
-		await page.setViewportSize({ width, height: 900 });
-		await page.screenshot({ path: join(dir, `${name}-${width}.png`), fullPage: true });
-	}
-	await page.setViewportSize({ width: 1280, height: 900 });
-}
