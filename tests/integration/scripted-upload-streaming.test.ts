@@ -6,6 +6,7 @@
 // other uploads go to the shared test server.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { randomFillSync } from 'node:crypto';
+import { createServer, request as httpRequest, type Server } from 'node:http';
 import type { Knex } from 'knex';
 import { testDb } from '../helpers/db';
 import { makeOrganization, makeProjectTree, makeUser, TEST_PASSWORD, type ProjectTree } from '../helpers/factories';
@@ -20,6 +21,8 @@ import { deleteCapture } from '../../src/lib/server/captures/service';
 import type { Scope } from '../../src/lib/server/auth/access';
 
 const APP_PORT = 3194;
+const SLOW_STORE_APP_PORT = 3195;
+const SLOW_STORE_PROXY_PORT = 3196;
 const MiB = 1024 * 1024;
 /** The shared test server's UPLOAD_MAX_BYTES. */
 const LIMIT = loadConfig(process.env).UPLOAD_MAX_BYTES;
@@ -32,6 +35,7 @@ const LARGE = 480 * MiB;
 
 let k: Knex;
 let tree: ProjectTree;
+let orgId: number;
 let scope: Scope;
 let app: PrivateServer;
 let appCookie: string;
@@ -116,6 +120,7 @@ function createdCapture(a: MultipartAnswer): { id: number; status: string } {
 beforeAll(async () => {
 	k = testDb();
 	const org = await makeOrganization(k);
+	orgId = org;
 	const user = await makeUser(k, org, 'acoustician');
 	tree = await makeProjectTree(k, org);
 	scope = { organizationId: org, projectId: tree.projectId, role: 'acoustician', user: { id: user.id, email: user.email, name: 'Test', unitSystem: 'metric' } };
@@ -278,4 +283,58 @@ describe('refused uploads leave no row and no object', () => {
 		expect((await json.json()).message).toMatch(/multipart\/form-data/);
 		await expectNothingLeft(before);
 	});
+});
+
+/**
+ * The object store behind a proxy that holds each DELETE for `delayMs`: removing what a refused
+ * upload staged then takes long enough to show what the server reads meanwhile.
+ */
+function slowDeletingStore(target: string, port: number, delayMs: number): Promise<Server> {
+	const to = new URL(target);
+	const proxy = createServer((req, res) => {
+		const forward = () => {
+			const upstream = httpRequest({ host: to.hostname, port: to.port, method: req.method, path: req.url, headers: req.headers }, (answer) => {
+				res.writeHead(answer.statusCode ?? 502, answer.headers);
+				answer.pipe(res);
+			});
+			upstream.on('error', () => res.destroy());
+			req.pipe(upstream);
+		};
+		if (req.method === 'DELETE') setTimeout(forward, delayMs);
+		else forward();
+	});
+	return new Promise((ok) => proxy.listen(port, '127.0.0.1', () => ok(proxy)));
+}
+
+describe('while a refused upload is cleaned up', () => {
+	let proxy: Server;
+	let slow: PrivateServer;
+	let slowCookie: string;
+	beforeAll(async () => {
+		proxy = await slowDeletingStore(loadConfig(process.env).S3_ENDPOINT, SLOW_STORE_PROXY_PORT, 1_500);
+		slow = await startPrivateServer(SLOW_STORE_APP_PORT, { S3_ENDPOINT: `http://127.0.0.1:${SLOW_STORE_PROXY_PORT}` });
+		const user = await makeUser(k, orgId, 'acoustician');
+		slowCookie = await signIn(slow.url, user.email);
+	}, 120_000);
+	afterAll(async () => {
+		await slow?.stop();
+		await new Promise((ok) => proxy?.close(ok));
+	});
+
+	// Found in CI: a busy store made the answer to a 64 MiB non-WAV come after 38 MB had been
+	// read, because the rest of the body was drained while the staged object was being removed.
+	it('the rest of the body is not read: the client is held to what the sockets take until the answer', async () => {
+		const before = await snapshot();
+		const notWav = new Uint8Array(64 * MiB).fill(0x41);
+		const a = await postMultipart(slow.url + uploadPath(), [...impulseFields(), { name: 'file', filename: 'notes.wav', body: notWav }], {
+			origin: slow.url,
+			cookie: slowCookie,
+			accept: 'application/json'
+		});
+		expect(a.status, a.body || a.error).toBe(422);
+		expect(JSON.parse(a.body).message).toMatch(/not a WAV file/);
+		// Loopback sockets hold a few MiB each way; draining for 1.5 s would take all 64.
+		expect(a.sentAtAnswer).toBeLessThan(16 * MiB);
+		await expectNothingLeft(before);
+	}, 60_000);
 });

@@ -56,12 +56,14 @@ function bodyProblem(e: unknown): Problem {
 /**
  * Parse a multipart body as it arrives. Each file part goes to `store` at once, as a stream;
  * fields are collected. On the first refusal (of a part, of the body, or of `store`) parsing
- * stops, every part still being stored is ended with an error and waited for, the rest of the
- * body is read and dropped (bounded, so the client gets the answer), and the refusal is thrown.
+ * stops, every part still being stored is ended with an error and waited for, `onRefusal` removes
+ * what was stored, then the rest of the body is read and dropped (bounded, so the client gets
+ * the answer), and the refusal is thrown.
  */
 async function readMultipart<T>(
 	request: Request,
-	store: (part: { name: FilePartName; filename: string; stream: Readable; fields: ReadonlyMap<string, string>; arrived: ReadonlySet<string> }) => Promise<T>
+	store: (part: { name: FilePartName; filename: string; stream: Readable; fields: ReadonlyMap<string, string>; arrived: ReadonlySet<string> }) => Promise<T>,
+	onRefusal: () => Promise<void>
 ): Promise<{ fields: Map<string, string>; files: Map<FilePartName, T> }> {
 	const contentType = request.headers.get('content-type') ?? '';
 	if (!request.body || !/^multipart\/form-data\s*;/i.test(contentType)) {
@@ -153,13 +155,16 @@ async function readMultipart<T>(
 		bodyDone = true; // the body itself failed: nothing left to drain
 		fail(bodyProblem(e));
 	}
-	if (failure) {
-		parser.destroy(); // ends a file part still arriving with an error
-		if (!bodyDone) discardRest(reader);
-	}
-	// Nothing is left running when this returns: a stored part is complete or dropped.
+	if (failure) parser.destroy(); // ends a file part still arriving with an error
+	// Nothing is left running when this returns: a stored part is complete or dropped. The rest
+	// of a refused body is drained only once what was stored is removed, just before the answer:
+	// until then back-pressure holds the client to what the sockets take.
 	const settled = await Promise.allSettled(stores.values());
-	if (failure) throw failure;
+	if (failure) {
+		await onRefusal().catch(() => {});
+		if (!bodyDone) discardRest(reader);
+		throw failure;
+	}
 	const files = new Map<FilePartName, T>();
 	for (const [i, name] of [...stores.keys()].entries()) {
 		const r = settled[i];
@@ -218,7 +223,11 @@ function refuseEarly(fields: ReadonlyMap<string, string>, arrived: ReadonlySet<s
  * built from both. Throws a Problem: 400 for a body that is not a readable form, 413 when a
  * file or the body passes its limit, 422 for missing or wrong fields.
  */
-export async function readCaptureUpload<T extends StoredPart>(request: Request, store: (part: FilePart) => Promise<T>): Promise<CaptureUpload<T>> {
+export async function readCaptureUpload<T extends StoredPart>(
+	request: Request,
+	store: (part: FilePart) => Promise<T>,
+	onRefusal: () => Promise<void>
+): Promise<CaptureUpload<T>> {
 	const names = new Map<FilePartName, string>();
 	const { fields, files } = await readMultipart(request, async ({ name, filename, stream, fields, arrived }) => {
 		try {
@@ -230,7 +239,7 @@ export async function readCaptureUpload<T extends StoredPart>(request: Request, 
 		names.set(name, filename);
 		const channel = arrived.has('channel') && fields.get('channel') !== '' ? Number(fields.get('channel')) : undefined;
 		return store({ name, filename, stream, channel: Number.isInteger(channel) ? channel : undefined });
-	});
+	}, onRefusal);
 	const file = files.get('file');
 	if (!file) throw new Problem(422, 'Attach the WAV file in the "file" field.', { details: { errors: { file: 'Missing.' } } });
 	const reference = files.get('reference') ?? null;

@@ -206,13 +206,20 @@ export async function uploadThroughServer(scope: Scope, sessionId: number, reque
 	const c = config();
 	const limits = { maxBytes: c.UPLOAD_MAX_BYTES, maxDurationS: c.ANALYSIS_MAX_DURATION_S };
 	const staged: string[] = [];
+	const removeStaged = async () => {
+		for (const key of staged.splice(0)) await s.remove(key).catch(() => {});
+	};
 	let created: CaptureRow | null = null;
 	try {
-		const { input, file, reference } = await readCaptureUpload(request, (part) => {
-			const key = newObjectKey(part.name === 'file' ? 'captures' : 'references');
-			staged.push(key);
-			return stageFile(s, key, part, limits);
-		});
+		const { input, file, reference } = await readCaptureUpload(
+			request,
+			(part) => {
+				const key = newObjectKey(part.name === 'file' ? 'captures' : 'references');
+				staged.push(key);
+				return stageFile(s, key, part, limits);
+			},
+			removeStaged
+		);
 		await checkStagedHeader(s, file, { name: 'file' }, input.channel, limits.maxDurationS);
 		if (reference) await checkStagedHeader(s, reference, { name: 'reference' }, null, limits.maxDurationS);
 		created = (await createCapture(scope, sessionId, input, s, { objectKey: file.key, referenceObjectKey: reference?.key ?? null })).capture;
@@ -222,7 +229,7 @@ export async function uploadThroughServer(scope: Scope, sessionId: number, reque
 		// meanwhile) goes with its objects here.
 		const row = created && (await captureRows.getCapture(db(), created.id));
 		if (row) await removeCapture(scope, row, s, 'capture.refused', { reason: e instanceof Error ? e.message : String(e) }).catch(() => {});
-		for (const key of staged) await s.remove(key).catch(() => {});
+		await removeStaged();
 		throw e;
 	}
 }
