@@ -22,6 +22,9 @@ const APP_PORT = 3198;
 // Two tries of the 5 s idle timeout, and some slack for a busy machine; without timeouts each of
 // these requests waited as long as the caller did.
 const ANSWER_WITHIN_MS = 15_000;
+// The rest of the test gives the store a 1.5 s idle timeout, so each refusal takes 3 s, not 10.
+const SHORT_IDLE = { S3_IDLE_TIMEOUT_MS: '1500' };
+const SHORT_ANSWER_WITHIN_MS = 8_000;
 
 let k: Knex;
 let tree: ProjectTree;
@@ -31,7 +34,10 @@ let silent: Server;
 const sockets = new Set<Socket>();
 let cookie: string;
 const s3 = createStorage(loadConfig(process.env));
-const silentStore = createStorage(loadConfig({ ...process.env, S3_ENDPOINT: `http://127.0.0.1:${SILENT_PORT}` }));
+const silentAt = { S3_ENDPOINT: `http://127.0.0.1:${SILENT_PORT}` };
+/** With the default timeouts, as a web server or worker runs. */
+const silentStoreAsDeployed = createStorage(loadConfig({ ...process.env, ...silentAt }));
+const silentStore = createStorage(loadConfig({ ...process.env, ...silentAt, ...SHORT_IDLE }));
 
 async function timed(request: () => Promise<Response>): Promise<{ res: Response; ms: number; body: { message?: string; code?: string } }> {
 	const t0 = Date.now();
@@ -50,7 +56,7 @@ function expectStorageUnavailable(r: { res: Response; ms: number; body: { messag
 	expect(r.res.status).toBe(503);
 	expect(r.body.code).toBe('unavailable');
 	expect(r.body.message).toMatch(/Object storage is not reachable right now/);
-	expect(r.ms).toBeLessThan(ANSWER_WITHIN_MS);
+	expect(r.ms).toBeLessThan(SHORT_ANSWER_WITHIN_MS);
 }
 
 beforeAll(async () => {
@@ -67,7 +73,7 @@ beforeAll(async () => {
 		socket.on('close', () => sockets.delete(socket));
 	});
 	await new Promise<void>((ok) => silent.listen(SILENT_PORT, '127.0.0.1', ok));
-	app = await startPrivateServer(APP_PORT, { S3_ENDPOINT: `http://127.0.0.1:${SILENT_PORT}` });
+	app = await startPrivateServer(APP_PORT, { ...silentAt, ...SHORT_IDLE });
 	const signIn = await fetch(`${app.url}/signin`, {
 		method: 'POST',
 		redirect: 'manual',
@@ -87,12 +93,18 @@ afterAll(async () => {
 
 describe('a store that accepts connections and never answers', () => {
 	it('every storage call gives up with a 503 problem within seconds', async () => {
-		for (const call of [() => silentStore.ping(), () => silentStore.head('captures/x.wav'), () => silentStore.getBytes('captures/x.wav'), () => silentStore.list('captures/')]) {
+		const calls = [
+			{ store: silentStoreAsDeployed, call: (s: typeof silentStore) => s.ping(), within: ANSWER_WITHIN_MS },
+			...[(s: typeof silentStore) => s.ping(), (s: typeof silentStore) => s.head('captures/x.wav'), (s: typeof silentStore) => s.getBytes('captures/x.wav'), (s: typeof silentStore) => s.list('captures/')].map(
+				(call) => ({ store: silentStore, call, within: SHORT_ANSWER_WITHIN_MS })
+			)
+		];
+		for (const { store, call, within } of calls) {
 			const t0 = Date.now();
-			const e = await call().then(() => null, (err: unknown) => err);
+			const e = await call(store).then(() => null, (err: unknown) => err);
 			expect(e).toBeInstanceOf(Problem);
 			expect((e as Problem).status).toBe(503);
-			expect(Date.now() - t0).toBeLessThan(ANSWER_WITHIN_MS);
+			expect(Date.now() - t0).toBeLessThan(within);
 		}
 	}, 90_000);
 
@@ -146,7 +158,7 @@ describe('a store that accepts connections and never answers', () => {
 		await confirmUpload(scope, created.capture.id, s3);
 		const t0 = Date.now();
 		const outcome = await runNextJob(k, silentStore, { owner: 'cut-off-worker' });
-		expect(Date.now() - t0).toBeLessThan(ANSWER_WITHIN_MS);
+		expect(Date.now() - t0).toBeLessThan(SHORT_ANSWER_WITHIN_MS);
 		expect(outcome?.result).toBe('retry');
 		const job = await k('jobs').where({ id: outcome!.job.id }).first();
 		expect(job.status).toBe('queued');
