@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import type { Browser, Locator, Page } from 'playwright-core';
+import { copyFileSync, mkdtempSync, renameSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { decodeWav, encodeWav } from '../../src/lib/analysis';
@@ -12,8 +12,8 @@ import { synthesiseResponse, UNTREATED } from '../../scripts/demo/room-response'
 
 // The closing run of measuring in the browser: three positions of the demo room, one after the
 // other with "Next position", timed from opening the measurement page to the third result on
-// screen. The fake microphone hears the demo room's untreated response at P1 (made from
-// formulas, as the demo's own captures) for every take: Chromium's fake device plays one file.
+// screen. The fake microphone hears the demo room's untreated response at the position being
+// measured (made from formulas, as the demo's own captures); the level check hears P1.
 // MEASURE_SWEEP_S and MEASURE_REPETITIONS change the test signal's length and the repetitions.
 const SR = 48_000;
 const SWEEP_S = Number(process.env.MEASURE_SWEEP_S ?? 5);
@@ -23,6 +23,16 @@ const dir = mkdtempSync(join(tmpdir(), 'ringdown-measure3-'));
 let browser: Browser;
 let signalName: string;
 let visitUrl: string;
+// Chromium's fake microphone plays one file, read again from its start by each stream the page
+// opens (the page opens a fresh one for every take). Were it the same file for every take, two
+// takes could be the same bytes, which the visit refuses as a duplicate upload; so the file
+// heard is replaced by the position's own before its take (renamed in whole, never half written).
+const heard = join(dir, 'heard.wav');
+const positionFile = (label: string) => join(dir, `demo-room-${label}.wav`);
+function hear(label: string): void {
+	copyFileSync(positionFile(label), `${heard}.next`);
+	renameSync(`${heard}.next`, heard);
+}
 
 beforeAll(async () => {
 	const setup = await launch();
@@ -34,18 +44,34 @@ beforeAll(async () => {
 	visitUrl = await newVisit(page, `three positions ${Date.now()}`);
 	await setup.close();
 
+	// Each position's take: the demo room's response there (as the demo's own captures make it)
+	// with background noise of its own, about −6 dBFS at the peak and the background 60 dB below.
 	const demo = DEMO_PROJECTS[0];
-	const p1 = demo.positions[0];
-	const ir = synthesiseResponse({ lengthM: demo.room.lengthM, widthM: demo.room.widthM, heightM: demo.room.heightM }, p1.source, p1.mic, UNTREATED, 1000);
-	const take = (gain: number, noiseRms: number) => repeatedRecording({ signal: sweep, ir, sampleRate: SR, repetitions: REPETITIONS, leadInS: 0.75, tailS: 2, gain, noiseRms, seed: 1 });
-	let peak = 0;
-	for (const v of take(1, 0).samples) peak = Math.max(peak, Math.abs(v));
-	// About −6 dBFS at the peak, with a background 60 dB below it.
-	writeFileSync(join(dir, 'demo-room-p1.wav'), encodeWav(take(0.5 / peak, 5e-4).samples, SR, 16));
-	browser = await launch({ fakeAudioCapture: `${join(dir, 'demo-room-p1.wav')}%noloop` });
+	const box = { lengthM: demo.room.lengthM, widthM: demo.room.widthM, heightM: demo.room.heightM };
+	demo.positions.slice(0, 3).forEach((p, pi) => {
+		const ir = synthesiseResponse(box, p.source, p.mic, UNTREATED, 1000 + pi);
+		const take = (gain: number, noiseRms: number) => repeatedRecording({ signal: sweep, ir, sampleRate: SR, repetitions: REPETITIONS, leadInS: 0.75, tailS: 2, gain, noiseRms, seed: 1 + pi });
+		let peak = 0;
+		for (const v of take(1, 0).samples) peak = Math.max(peak, Math.abs(v));
+		writeFileSync(positionFile(p.label), encodeWav(take(0.5 / peak, 5e-4).samples, SR, 16));
+	});
+	hear('P1');
+	browser = await launch({ fakeAudioCapture: `${heard}%noloop` });
 });
 
 afterAll(async () => browser?.close());
+
+/** What the page says of the take: its phase, its notice, its result and the captures' list. */
+async function takeState(page: Page): Promise<string> {
+	const text = async (l: Locator) => ((await l.count()) > 0 ? (await l.first().innerText()).replace(/\s+/g, ' ').trim() : '(none)');
+	const phase = await page.getByTestId('take-state').getAttribute('data-phase');
+	return [
+		`phase ${phase}`,
+		`notice: ${await text(page.getByTestId('take-notice'))}`,
+		`take: ${(await text(page.getByTestId('take-result'))).slice(0, 600)}`,
+		`page ends: ${(await page.locator('main').innerText()).slice(-600)}`
+	].join('; ');
+}
 
 describe('three positions of the demo room, measured in the browser', () => {
 	it('measures P1, P2 and P3 with "Next position" and shows each analysed', async () => {
@@ -59,15 +85,17 @@ describe('three positions of the demo room, measured in the browser', () => {
 		const steps: { label: string; atS: number; recordS: number; alignS: number; uploadS: number }[] = [];
 		for (const label of ['P1', 'P2', 'P3']) {
 			if (label !== 'P1') await page.getByRole('button', { name: 'Next position' }).click();
+			hear(label);
 			await page.getByRole('button', { name: `Measure ${label}` }).click();
-			// Settled: the bands are drawn, or the page says the take or its analysis failed. The
-			// wait is long because in a full run the worker may still hold earlier tests' jobs.
-			const settled = page.getByTestId('band-times').or(page.getByText('The analysis failed'));
-			const state = async () => (await page.locator('main').innerText()).slice(-600);
+			// Settled: the bands are drawn, the analysis failed, or the take itself failed or was
+			// refused (the page's notice). The wait is long because in a full run the worker may
+			// still hold earlier tests' jobs.
+			const settled = page.getByTestId('band-times').or(page.getByText('The analysis failed')).or(page.getByTestId('take-notice'));
+			const state = () => takeState(page);
 			await settled.first().waitFor({ timeout: 300_000 }).catch(async () => {
-				throw new Error(`${label} was not analysed within 300 s; the page ends: ${await state()}`);
+				throw new Error(`${label} was not analysed within 300 s; ${await state()}`);
 			});
-			if (!(await page.getByTestId('band-times').isVisible())) throw new Error(`${label} did not end analysed: ${await state()}`);
+			if (!(await page.getByTestId('band-times').isVisible())) throw new Error(`${label} did not end analysed; ${await state()}`);
 			expect(await page.getByTestId('take-result').locator('h3').innerText()).toMatch(new RegExp(`^${label}: ${label}-measured-${REPETITIONS}x-`));
 			const t30 = await page.getByTestId('band-row').locator('[data-metric="t30"]').allInnerTexts();
 			expect(t30.filter((t) => /\d\.\d\d\u00a0s/.test(t)).length).toBeGreaterThanOrEqual(6);
