@@ -1,14 +1,80 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser } from 'playwright-core';
+import type { Browser, Locator, Page } from 'playwright-core';
 import { launch, newPage, seen, signIn } from './browser';
 
 // A double click on a creating form's button makes one thing: the button is disabled while the
-// form is sent, and the server acts on the form's one-time key once.
+// form is sent, and the server acts on the form's one-time key once — a form sent twice with
+// the same key past its disabled button (a resent request) still makes one.
 let browser: Browser;
 beforeAll(async () => {
 	browser = await launch();
 });
 afterAll(async () => browser?.close());
+
+/** The room page of the demo room, with its two visits. */
+async function openDemoRoom(page: Page): Promise<string> {
+	await page.getByRole('link', { name: 'Lindqvist listening room' }).click();
+	await page.getByRole('link', { name: 'Attic listening room' }).click();
+	await page.waitForURL(/\/rooms\/\d+$/);
+	await page.waitForLoadState('networkidle');
+	return new URL(page.url()).pathname;
+}
+
+/** Count the POSTs to a form action (`?/name`) the page sends from now on. */
+function countPosts(page: Page, action: string): () => number {
+	let n = 0;
+	page.on('request', (r) => {
+		if (r.method() === 'POST' && r.url().includes(`?/${action}`)) n++;
+	});
+	return () => n;
+}
+
+/** Send a form twice in a row with the same one-time key, past its disabled buttons (as a resent request would). */
+async function sendTwice(form: Locator): Promise<void> {
+	await form.evaluate((f: HTMLFormElement) => {
+		f.requestSubmit();
+		f.requestSubmit();
+	});
+}
+
+async function newComparison(page: Page, title: string, send: (button: Locator) => Promise<void>): Promise<string> {
+	const compare = page.getByRole('form', { name: 'Compare two visits' });
+	await compare.getByLabel('Title').fill(title);
+	await compare.getByLabel('Before', { exact: true }).selectOption({ label: 'untreated — 2026-10-06' });
+	await compare.getByLabel('After', { exact: true }).selectOption({ label: 'after treatment — 2026-11-17' });
+	await send(compare.getByRole('button', { name: 'Compare visits' }));
+	await page.waitForURL(/\/comparisons\/\d+$/);
+	return new URL(page.url()).pathname;
+}
+
+/** The comparisons listed on the room page: all of them, and those of one title. */
+async function listed(page: Page, room: string, title: string): Promise<{ all: number; titled: number }> {
+	await page.goto(room);
+	const list = page.getByRole('list', { name: 'Comparisons' });
+	await list.waitFor();
+	return { all: await list.getByRole('link').count(), titled: await list.getByRole('link', { name: title, exact: true }).count() };
+}
+
+/** The treatment plan of the demo room, with the form for a new porous absorber open and named. */
+async function openPlanForm(page: Page, room: string, label: string): Promise<Locator> {
+	await page.goto(`${room}/plan`);
+	await page.waitForLoadState('networkidle');
+	await page.getByText('Add a porous absorber', { exact: true }).click();
+	const form = page.getByRole('form', { name: 'Add a porous absorber' });
+	await form.getByLabel('Name').fill(label);
+	await form.getByLabel('Mounted on').selectOption({ label: 'Free-standing (covers no surface)' });
+	return form;
+}
+
+/** Take the test's item out of the shared demo plan again. */
+async function removeItem(page: Page, label: string): Promise<void> {
+	const item = page.getByTestId('plan-item').filter({ has: page.getByRole('heading', { name: label, exact: true }) });
+	while ((await item.count()) > 0) {
+		const n = await item.count();
+		await item.first().getByRole('button', { name: 'Remove' }).click();
+		await expect.poll(() => item.count()).toBe(n - 1);
+	}
+}
 
 describe('creating forms are sent once', () => {
 	it('acoustician: a double click on "Create room" creates one room', async () => {
@@ -29,5 +95,81 @@ describe('creating forms are sent once', () => {
 		await page.waitForURL(/\/projects\/\d+$/);
 		expect(await seen(page.getByRole('link', { name }))).toBe(true);
 		expect(await page.getByRole('link', { name }).count()).toBe(1);
+	});
+
+	it('consultant: a double click on "Compare visits" creates one comparison', async () => {
+		const page = await newPage(browser);
+		await signIn(page, 'consultant@fenwick-hale.test');
+		const room = await openDemoRoom(page);
+		const title = `Double-click check ${Date.now()}`;
+		const before = await listed(page, room, title);
+		await page.waitForLoadState('networkidle');
+		const posts = countPosts(page, 'createComparison');
+		await newComparison(page, title, (button) => button.dblclick());
+		// The button is disabled while the form is sent: the second click sends nothing.
+		expect(posts()).toBe(1);
+		const after = await listed(page, room, title);
+		expect(after.titled).toBe(1);
+		expect(after.all).toBe(before.all + 1);
+	});
+
+	it('consultant: "Compare visits" sent twice with one key still creates one comparison', async () => {
+		const page = await newPage(browser);
+		await signIn(page, 'consultant@fenwick-hale.test');
+		const room = await openDemoRoom(page);
+		const title = `Resent check ${Date.now()}`;
+		const before = await listed(page, room, title);
+		await page.waitForLoadState('networkidle');
+		const posts = countPosts(page, 'createComparison');
+		const path = await newComparison(page, title, (button) => sendTwice(button.locator('xpath=ancestor::form')));
+		// Both reached the server; the second waited for the first and got its redirect.
+		await expect.poll(posts).toBe(2);
+		await page.waitForLoadState('networkidle');
+		expect(new URL(page.url()).pathname).toBe(path);
+		const after = await listed(page, room, title);
+		expect(after.titled).toBe(1);
+		expect(after.all).toBe(before.all + 1);
+	});
+
+	it('consultant: a double click on "Add to the plan" adds one item', async () => {
+		const page = await newPage(browser);
+		await signIn(page, 'consultant@fenwick-hale.test');
+		const room = await openDemoRoom(page);
+		const label = `Double-click absorber ${Date.now()}`;
+		const form = await openPlanForm(page, room, label);
+		const items = page.getByTestId('plan-item');
+		const mine = items.filter({ has: page.getByRole('heading', { name: label, exact: true }) });
+		const before = await items.count();
+		const posts = countPosts(page, 'addItem');
+		await form.getByRole('button', { name: 'Add to the plan' }).dblclick();
+		await page.getByText('Item saved; the prediction is updated.').waitFor();
+		await page.waitForLoadState('networkidle');
+		expect(posts()).toBe(1);
+		expect(await mine.count()).toBe(1);
+		expect(await items.count()).toBe(before + 1);
+		// Reloaded from the server, not only as the page drew it.
+		await page.reload();
+		expect(await mine.count()).toBe(1);
+		await removeItem(page, label);
+	});
+
+	it('consultant: "Add to the plan" sent twice with one key still adds one item', async () => {
+		const page = await newPage(browser);
+		await signIn(page, 'consultant@fenwick-hale.test');
+		const room = await openDemoRoom(page);
+		const label = `Resent absorber ${Date.now()}`;
+		const form = await openPlanForm(page, room, label);
+		const items = page.getByTestId('plan-item');
+		const mine = items.filter({ has: page.getByRole('heading', { name: label, exact: true }) });
+		const before = await items.count();
+		const posts = countPosts(page, 'addItem');
+		await sendTwice(form);
+		await page.getByText('Item saved; the prediction is updated.').waitFor();
+		await expect.poll(posts).toBe(2);
+		await page.waitForLoadState('networkidle');
+		await page.reload();
+		expect(await mine.count()).toBe(1);
+		expect(await items.count()).toBe(before + 1);
+		await removeItem(page, label);
 	});
 });
