@@ -27,12 +27,33 @@ const PORTS: Record<Profile, Ports> = {
 
 export const ROOT = resolve(import.meta.dirname, '..');
 
+// The demo's data dir and ports can be moved by the environment (RINGDOWN_DATA_DIR, and the
+// ports in DB_PORT, S3_ENDPOINT, SMTP_PORT, MAIL_SINK_URL and PORT), so a second launcher can run
+// beside it; unset, they are the defaults above. The test profile ignores the environment.
 export function dataDir(profile: Profile): string {
+	if (profile === 'demo' && process.env.RINGDOWN_DATA_DIR) return resolve(process.env.RINGDOWN_DATA_DIR);
 	return join(ROOT, profile === 'demo' ? '.data' : '.test-data');
 }
 
+function portFrom(value: string | undefined, fallback: number, url = false): number {
+	const text = url && value ? new URL(value).port : value;
+	if (!text) return fallback; // unset, or a URL on its scheme's default port
+	const n = Number(text);
+	if (!Number.isInteger(n) || n <= 0 || n > 65535) throw new Error(`Not a port: ${value}`);
+	return n;
+}
+
 export function ports(profile: Profile): Ports {
-	return PORTS[profile];
+	const p = PORTS[profile];
+	if (profile !== 'demo') return p;
+	const e = process.env;
+	return {
+		db: portFrom(e.DB_PORT, p.db),
+		s3: portFrom(e.S3_ENDPOINT, p.s3, true),
+		smtp: portFrom(e.SMTP_PORT, p.smtp),
+		mailHttp: portFrom(e.MAIL_SINK_URL, p.mailHttp, true),
+		app: portFrom(e.PORT, p.app)
+	};
 }
 
 function authSecret(dir: string): string {
@@ -46,7 +67,7 @@ function authSecret(dir: string): string {
 
 /** Environment for the app, the worker and scripts of a profile; explicit settings win. */
 export function profileEnv(profile: Profile): Record<string, string> {
-	const p = PORTS[profile];
+	const p = ports(profile);
 	const base = `http://127.0.0.1:${p.app}`;
 	const defaults: Record<string, string> = {
 		DB_HOST: '127.0.0.1',
@@ -82,7 +103,7 @@ export function profileEnv(profile: Profile): Record<string, string> {
 
 export async function startServices(profile: Profile): Promise<RunningService[]> {
 	const dir = dataDir(profile);
-	const p = PORTS[profile];
+	const p = ports(profile);
 	const env = profileEnv(profile);
 	const started: RunningService[] = [];
 	try {

@@ -2,7 +2,7 @@
 // Ctrl-C (or SIGTERM) stops everything it started; a worker that dies is started again;
 // running it again reuses the data.
 import knex from 'knex';
-import { migrate, ports, profileEnv, startServices, stopServices } from './stack';
+import { dataDir, migrate, ports, profileEnv, startServices, stopServices } from './stack';
 import type { RunningService } from './services/mariadb';
 import { buildIfStale, onUnexpectedExit, startChild, startWebServer, startWorker, supervise, waitForHttp } from './processes';
 import { seedDemo } from './demo/seed';
@@ -10,7 +10,7 @@ import { seedDemoCaptures } from './demo/seed-captures';
 import { DEMO_PASSWORD, DEMO_USERS } from './demo/scenario';
 import { loadConfig } from '../src/lib/server/config';
 import { knexSettings } from '../src/lib/server/db';
-import { join } from 'node:path';
+import { join, relative } from 'node:path';
 import { ROOT } from './stack';
 
 const dev = process.argv.includes('--dev');
@@ -78,7 +78,7 @@ ${DEMO_USERS.map((u) => `  ${u.email.padEnd(width)}  ${u.role}`).join('\n')}
 Mail sink:   http://127.0.0.1:${p.mailHttp}
 S3 fake:     http://127.0.0.1:${p.s3}  (bucket ${env.S3_BUCKET})
 MariaDB:     127.0.0.1:${p.db}  (database ${env.DB_NAME})
-Data:        .data/   ·   Ctrl-C stops everything.
+Data:        ${relative(ROOT, dataDir('demo')) || '.'}/   ·   Ctrl-C stops everything.
 `);
 }
 
