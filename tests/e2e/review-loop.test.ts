@@ -91,7 +91,8 @@ describe('from captures to a published report', () => {
 	});
 
 	it('client: sees the report with the band, downloads the PDF, and has the e-mail', async () => {
-		const mail = await waitForMail('client@fenwick-hale.test', /Your report is ready: Attic listening room/);
+		// Other tests publish reports of the same room to the same client: this report's own mail.
+		const mail = await waitForMail('client@fenwick-hale.test', /Your report is ready: Attic listening room/, 15_000, (m) => new RegExp(`${reportUrl}(?!\\d)`).test(m.text));
 		expect(firstLink(mail.text)).toContain(reportUrl);
 
 		const page = await newPage(browser);
