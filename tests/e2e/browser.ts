@@ -68,3 +68,26 @@ export async function shots(page: Page, name: string): Promise<void> {
 	}
 	await page.setViewportSize({ width: 1280, height: 900 });
 }
+
+/** The demo's attic room page (scripts/demo/scenario.ts), from the projects list; its path. */
+export async function openDemoRoom(page: Page): Promise<string> {
+	await page.getByRole('link', { name: 'Lindqvist listening room' }).click();
+	await page.getByRole('link', { name: 'Attic listening room' }).click();
+	await page.waitForURL(/\/rooms\/\d+$/);
+	await page.waitForLoadState('networkidle');
+	return new URL(page.url()).pathname;
+}
+
+/**
+ * On the demo room's page: compare its untreated visit with the treated one under `title`,
+ * sent through `send` (a click by default); the new comparison's path.
+ */
+export async function compareDemoVisits(page: Page, title: string, send: (button: Locator) => Promise<void> = (b) => b.click()): Promise<string> {
+	const compare = page.getByRole('form', { name: 'Compare two visits' });
+	await compare.getByLabel('Title').fill(title);
+	await compare.getByLabel('Before', { exact: true }).selectOption({ label: 'untreated — 2026-10-06' });
+	await compare.getByLabel('After', { exact: true }).selectOption({ label: 'after treatment — 2026-11-17' });
+	await send(compare.getByRole('button', { name: 'Compare visits' }));
+	await page.waitForURL(/\/comparisons\/\d+$/);
+	return new URL(page.url()).pathname;
+}

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { launch, newPage, signIn } from './browser';
+import { compareDemoVisits, launch, newPage, openDemoRoom, signIn } from './browser';
 
 // Three details of the demo room's pages: the report's PDF link is a download, not a page the
 // client router tries (no error in the console); a duration such as "0.55 s" in a visit's tables
@@ -10,13 +10,6 @@ let browser: Browser;
 const visits: string[] = [];
 let comparisonPath = '';
 let reportPath = '';
-
-async function openDemoRoom(page: Page): Promise<void> {
-	await page.getByRole('link', { name: 'Lindqvist listening room' }).click();
-	await page.getByRole('link', { name: 'Attic listening room' }).click();
-	await page.waitForURL(/\/rooms\/\d+$/);
-	await page.waitForLoadState('networkidle');
-}
 
 beforeAll(async () => {
 	browser = await launch();
@@ -34,13 +27,7 @@ beforeAll(async () => {
 	}
 	await page.goto(room);
 	await page.waitForLoadState('networkidle');
-	const compare = page.getByRole('form', { name: 'Compare two visits' });
-	await compare.getByLabel('Title').fill(`Details check ${Date.now()}`);
-	await compare.getByLabel('Before', { exact: true }).selectOption({ label: 'untreated — 2026-10-06' });
-	await compare.getByLabel('After', { exact: true }).selectOption({ label: 'after treatment — 2026-11-17' });
-	await compare.getByRole('button', { name: 'Compare visits' }).click();
-	await page.waitForURL(/\/comparisons\/\d+$/);
-	comparisonPath = new URL(page.url()).pathname;
+	comparisonPath = await compareDemoVisits(page, `Details check ${Date.now()}`);
 	await page.waitForLoadState('networkidle');
 	await page.getByRole('button', { name: 'Publish to the client' }).click();
 	await page.waitForURL(/\/reports\/\d+\?published=1$/);

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Locator, Page } from 'playwright-core';
-import { launch, newPage, seen, signIn } from './browser';
+import { compareDemoVisits, launch, newPage, openDemoRoom, seen, signIn } from './browser';
 
 // A double click on a creating form's button makes one thing: the button is disabled while the
 // form is sent, and the server acts on the form's one-time key once — a form sent twice with
@@ -10,15 +10,6 @@ beforeAll(async () => {
 	browser = await launch();
 });
 afterAll(async () => browser?.close());
-
-/** The room page of the demo room, with its two visits. */
-async function openDemoRoom(page: Page): Promise<string> {
-	await page.getByRole('link', { name: 'Lindqvist listening room' }).click();
-	await page.getByRole('link', { name: 'Attic listening room' }).click();
-	await page.waitForURL(/\/rooms\/\d+$/);
-	await page.waitForLoadState('networkidle');
-	return new URL(page.url()).pathname;
-}
 
 /** Count the POSTs to a form action (`?/name`) the page sends from now on. */
 function countPosts(page: Page, action: string): () => number {
@@ -35,16 +26,6 @@ async function sendTwice(form: Locator): Promise<void> {
 		f.requestSubmit();
 		f.requestSubmit();
 	});
-}
-
-async function newComparison(page: Page, title: string, send: (button: Locator) => Promise<void>): Promise<string> {
-	const compare = page.getByRole('form', { name: 'Compare two visits' });
-	await compare.getByLabel('Title').fill(title);
-	await compare.getByLabel('Before', { exact: true }).selectOption({ label: 'untreated — 2026-10-06' });
-	await compare.getByLabel('After', { exact: true }).selectOption({ label: 'after treatment — 2026-11-17' });
-	await send(compare.getByRole('button', { name: 'Compare visits' }));
-	await page.waitForURL(/\/comparisons\/\d+$/);
-	return new URL(page.url()).pathname;
 }
 
 /** The comparisons listed on the room page: all of them, and those of one title. */
@@ -76,6 +57,55 @@ async function removeItem(page: Page, label: string): Promise<void> {
 	}
 }
 
+/**
+ * A new comparison sent through `send`, which returns the check of what reached the server;
+ * then the room lists exactly one comparison of that title, and one more in all.
+ */
+async function comparesOnce(
+	titleStart: string,
+	send: (button: Locator, posts: () => number) => Promise<(page: Page, path: string) => void | Promise<void>>
+): Promise<void> {
+	const page = await newPage(browser);
+	await signIn(page, 'consultant@fenwick-hale.test');
+	const room = await openDemoRoom(page);
+	const title = `${titleStart} ${Date.now()}`;
+	const before = await listed(page, room, title);
+	await page.waitForLoadState('networkidle');
+	const posts = countPosts(page, 'createComparison');
+	let check: (page: Page, path: string) => void | Promise<void> = () => {};
+	const path = await compareDemoVisits(page, title, async (button) => {
+		check = await send(button, posts);
+	});
+	await check(page, path);
+	const after = await listed(page, room, title);
+	expect(after.titled).toBe(1);
+	expect(after.all).toBe(before.all + 1);
+}
+
+/**
+ * A new plan item sent through `send` (which also checks what reached the server); then the
+ * plan shows it once, and one item more in all, as drawn and as reloaded from the server.
+ */
+async function addsOneItem(labelStart: string, send: (form: Locator, posts: () => number, page: Page) => Promise<void>): Promise<void> {
+	const page = await newPage(browser);
+	await signIn(page, 'consultant@fenwick-hale.test');
+	const room = await openDemoRoom(page);
+	const label = `${labelStart} ${Date.now()}`;
+	const form = await openPlanForm(page, room, label);
+	const items = page.getByTestId('plan-item');
+	const mine = items.filter({ has: page.getByRole('heading', { name: label, exact: true }) });
+	const before = await items.count();
+	const posts = countPosts(page, 'addItem');
+	await send(form, posts, page);
+	expect(await mine.count()).toBe(1);
+	expect(await items.count()).toBe(before + 1);
+	// Reloaded from the server, not only as the page drew it.
+	await page.reload();
+	expect(await mine.count()).toBe(1);
+	expect(await items.count()).toBe(before + 1);
+	await removeItem(page, label);
+}
+
 describe('creating forms are sent once', () => {
 	it('acoustician: a double click on "Create room" creates one room', async () => {
 		const page = await newPage(browser);
@@ -97,79 +127,37 @@ describe('creating forms are sent once', () => {
 		expect(await page.getByRole('link', { name }).count()).toBe(1);
 	});
 
-	it('consultant: a double click on "Compare visits" creates one comparison', async () => {
-		const page = await newPage(browser);
-		await signIn(page, 'consultant@fenwick-hale.test');
-		const room = await openDemoRoom(page);
-		const title = `Double-click check ${Date.now()}`;
-		const before = await listed(page, room, title);
-		await page.waitForLoadState('networkidle');
-		const posts = countPosts(page, 'createComparison');
-		await newComparison(page, title, (button) => button.dblclick());
-		// The button is disabled while the form is sent: the second click sends nothing.
-		expect(posts()).toBe(1);
-		const after = await listed(page, room, title);
-		expect(after.titled).toBe(1);
-		expect(after.all).toBe(before.all + 1);
-	});
+	it('consultant: a double click on "Compare visits" creates one comparison', () =>
+		comparesOnce('Double-click check', async (button, posts) => {
+			await button.dblclick();
+			// The button is disabled while the form is sent: the second click sends nothing.
+			return () => expect(posts()).toBe(1);
+		}));
 
-	it('consultant: "Compare visits" sent twice with one key still creates one comparison', async () => {
-		const page = await newPage(browser);
-		await signIn(page, 'consultant@fenwick-hale.test');
-		const room = await openDemoRoom(page);
-		const title = `Resent check ${Date.now()}`;
-		const before = await listed(page, room, title);
-		await page.waitForLoadState('networkidle');
-		const posts = countPosts(page, 'createComparison');
-		const path = await newComparison(page, title, (button) => sendTwice(button.locator('xpath=ancestor::form')));
-		// Both reached the server; the second waited for the first and got its redirect.
-		await expect.poll(posts).toBe(2);
-		await page.waitForLoadState('networkidle');
-		expect(new URL(page.url()).pathname).toBe(path);
-		const after = await listed(page, room, title);
-		expect(after.titled).toBe(1);
-		expect(after.all).toBe(before.all + 1);
-	});
+	it('consultant: "Compare visits" sent twice with one key still creates one comparison', () =>
+		comparesOnce('Resent check', async (button, posts) => {
+			await sendTwice(button.locator('xpath=ancestor::form'));
+			// Both reached the server; the second waited for the first and got its redirect.
+			return async (page, path) => {
+				await expect.poll(posts).toBe(2);
+				await page.waitForLoadState('networkidle');
+				expect(new URL(page.url()).pathname).toBe(path);
+			};
+		}));
 
-	it('consultant: a double click on "Add to the plan" adds one item', async () => {
-		const page = await newPage(browser);
-		await signIn(page, 'consultant@fenwick-hale.test');
-		const room = await openDemoRoom(page);
-		const label = `Double-click absorber ${Date.now()}`;
-		const form = await openPlanForm(page, room, label);
-		const items = page.getByTestId('plan-item');
-		const mine = items.filter({ has: page.getByRole('heading', { name: label, exact: true }) });
-		const before = await items.count();
-		const posts = countPosts(page, 'addItem');
-		await form.getByRole('button', { name: 'Add to the plan' }).dblclick();
-		await page.getByText('Item saved; the prediction is updated.').waitFor();
-		await page.waitForLoadState('networkidle');
-		expect(posts()).toBe(1);
-		expect(await mine.count()).toBe(1);
-		expect(await items.count()).toBe(before + 1);
-		// Reloaded from the server, not only as the page drew it.
-		await page.reload();
-		expect(await mine.count()).toBe(1);
-		await removeItem(page, label);
-	});
+	it('consultant: a double click on "Add to the plan" adds one item', () =>
+		addsOneItem('Double-click absorber', async (form, posts, page) => {
+			await form.getByRole('button', { name: 'Add to the plan' }).dblclick();
+			await page.getByText('Item saved; the prediction is updated.').waitFor();
+			await page.waitForLoadState('networkidle');
+			expect(posts()).toBe(1);
+		}));
 
-	it('consultant: "Add to the plan" sent twice with one key still adds one item', async () => {
-		const page = await newPage(browser);
-		await signIn(page, 'consultant@fenwick-hale.test');
-		const room = await openDemoRoom(page);
-		const label = `Resent absorber ${Date.now()}`;
-		const form = await openPlanForm(page, room, label);
-		const items = page.getByTestId('plan-item');
-		const mine = items.filter({ has: page.getByRole('heading', { name: label, exact: true }) });
-		const before = await items.count();
-		const posts = countPosts(page, 'addItem');
-		await sendTwice(form);
-		await page.getByText('Item saved; the prediction is updated.').waitFor();
-		await expect.poll(posts).toBe(2);
-		await page.waitForLoadState('networkidle');
-		await page.reload();
-		expect(await mine.count()).toBe(1);
-		expect(await items.count()).toBe(before + 1);
-		await removeItem(page, label);
-	});
+	it('consultant: "Add to the plan" sent twice with one key still adds one item', () =>
+		addsOneItem('Resent absorber', async (form, posts, page) => {
+			await sendTwice(form);
+			await page.getByText('Item saved; the prediction is updated.').waitFor();
+			await expect.poll(posts).toBe(2);
+			await page.waitForLoadState('networkidle');
+		}));
 });

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { mkdirSync } from 'node:fs';
-import { launch, newPage, seen, signIn } from './browser';
+import { compareDemoVisits, launch, newPage, seen, signIn } from './browser';
 
 // The demo visit shows its measurement grade and spread; a comparison of the demo's two visits
 // shows each position before and after; neither page is wider than a 390 px phone.
@@ -104,12 +104,7 @@ describe('spread and grade in the browser', () => {
 		await signIn(page, 'consultant@fenwick-hale.test');
 		await page.getByRole('link', { name: 'Lindqvist listening room' }).click();
 		await page.getByRole('link', { name: 'Attic listening room' }).click();
-		const compare = page.getByRole('form', { name: 'Compare two visits' });
-		await compare.getByLabel('Title').fill(`Spread check ${Date.now()}`);
-		await compare.getByLabel('Before', { exact: true }).selectOption({ label: 'untreated — 2026-10-06' });
-		await compare.getByLabel('After', { exact: true }).selectOption({ label: 'after treatment — 2026-11-17' });
-		await compare.getByRole('button', { name: 'Compare visits' }).click();
-		await page.waitForURL(/\/comparisons\/\d+$/);
+		await compareDemoVisits(page, `Spread check ${Date.now()}`);
 		comparisonUrl = page.url();
 
 		const rows = page.getByTestId('position-row');
