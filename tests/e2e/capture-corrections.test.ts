@@ -43,6 +43,8 @@ describe('a failed upload into a new position', () => {
 		expect(await page.getByTestId('position').count()).toBe(0);
 		await page.reload();
 		expect(await seen(page.getByText('No positions yet.'))).toBe(true);
+		// The text is there before the page is hydrated; a file chosen earlier would go unheard.
+		await page.waitForLoadState('networkidle');
 
 		await page.unroute('**/*');
 		await page.getByLabel('Choose WAV files').setInputFiles(join(FIXTURES, 'decay-t0.5-48k.wav'));
