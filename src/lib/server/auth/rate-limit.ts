@@ -121,13 +121,15 @@ export async function takeAttempts(k: Knex, takes: Take[]): Promise<Answer> {
 	// row in one transaction lets two requests deadlock on it.
 	await transaction((trx) => ensureBuckets(trx, keys), k, 5);
 	const verdict = await transaction(async (trx) => {
-		const now = await databaseNow(trx);
 		let states = await lockBuckets(trx, keys);
 		if (states.size < keys.length) {
 			// A bucket forgotten in between (a reset, the idle sweep): made again, under this lock.
 			await ensureBuckets(trx, keys.filter((key) => !states.has(key)));
 			states = await lockBuckets(trx, keys);
 		}
+		// The clock is read once the lock is held: read before, it can be older than the lockout
+		// another request wrote while this one waited, which then looks longer than it is.
+		const now = await databaseNow(trx);
 		const results = takes.map((t, i) => ({ key: keys[i], ...takeAttempt(states.get(keys[i])!, t.policy ?? LIMITS[t.name], now) }));
 		const refused = results.filter((r) => !r.verdict.allowed);
 		// Refused: only a lockout that starts now is written; allowed: every bucket is charged.
@@ -145,8 +147,8 @@ export async function takeAttempts(k: Knex, takes: Take[]): Promise<Answer> {
 export async function giveBackAttempts(k: Knex, takes: (Take & { forget: boolean })[]): Promise<void> {
 	const keys = takes.map((t) => bucketKey(t.name, t.who));
 	await transaction(async (trx) => {
-		const now = await databaseNow(trx);
 		const states = await lockBuckets(trx, keys);
+		const now = await databaseNow(trx); // after the lock, as in takeAttempts
 		for (const [i, t] of takes.entries()) {
 			const s = states.get(keys[i]);
 			if (s) await saveBucket(trx, keys[i], giveBack(s, now, t), now);
